@@ -1,0 +1,245 @@
+import { ArgumentError } from '../../errors';
+
+/**
+ * A symmetric n × n sparse matrix stored by its lower triangle in compressed sparse column
+ * form: column j holds rows `rowIdx[colPtr[j] .. colPtr[j+1])`, all ≥ j, sorted ascending, no
+ * duplicates, with the diagonal entry first when it is stored. Equivalently, the upper triangle
+ * in compressed sparse row form.
+ */
+export interface SymmetricCsc {
+  /** Dimension n. */
+  readonly n: number;
+  /** Column pointers, length n + 1. */
+  readonly colPtr: Int32Array;
+  /** Row indices of the lower triangle, length nnz, each ≥ its column. */
+  readonly rowIdx: Int32Array;
+  /** Values aligned with rowIdx. */
+  readonly values: Float64Array;
+}
+
+/**
+ * Accumulates symmetric entries (i, j, v) in coordinate form; duplicates are summed. Either
+ * triangle may be given: (i, j) and (j, i) denote the same entry, so give each off-diagonal
+ * pair once.
+ */
+export class CooBuilder {
+  readonly n: number;
+  private rows: Int32Array;
+  private cols: Int32Array;
+  private vals: Float64Array;
+  private count = 0;
+
+  /** @param n - dimension; @param capacity - initial entry capacity (grows as needed). */
+  constructor(n: number, capacity = 16) {
+    if (!Number.isInteger(n) || n < 0) throw new ArgumentError(`dimension ${n} is not a non-negative integer; pass the matrix size`, 'n');
+    this.n = n;
+    const c = Math.max(16, capacity | 0);
+    this.rows = new Int32Array(c);
+    this.cols = new Int32Array(c);
+    this.vals = new Float64Array(c);
+  }
+
+  /** Number of entries added so far (before duplicates are summed). */
+  get size(): number {
+    return this.count;
+  }
+
+  /** Adds v at (i, j) (and, by symmetry, at (j, i)). */
+  add(i: number, j: number, v: number): void {
+    if (this.count === this.rows.length) this.grow();
+    const k = this.count++;
+    if (i >= j) {
+      this.rows[k] = i;
+      this.cols[k] = j;
+    } else {
+      this.rows[k] = j;
+      this.cols[k] = i;
+    }
+    this.vals[k] = v;
+  }
+
+  private grow(): void {
+    const c = this.rows.length * 2;
+    const r = new Int32Array(c);
+    r.set(this.rows);
+    const q = new Int32Array(c);
+    q.set(this.cols);
+    const v = new Float64Array(c);
+    v.set(this.vals);
+    this.rows = r;
+    this.cols = q;
+    this.vals = v;
+  }
+
+  /**
+   * Compresses to lower-triangle CSC with sorted rows and summed duplicates. Explicit zeros that
+   * were added are kept (they are part of the pattern).
+   */
+  toCsc(): SymmetricCsc {
+    const n = this.n;
+    const nz = this.count;
+    const { rows, cols, vals } = this;
+    for (let k = 0; k < nz; k++) {
+      if (rows[k] < 0 || rows[k] >= n || cols[k] < 0) {
+        throw new ArgumentError(`entry (${rows[k]}, ${cols[k]}) lies outside a ${n} × ${n} matrix; use indices 0..${n - 1}`, `entries[${k}]`);
+      }
+    }
+    // Bucket by row (CSR of the lower triangle = CSC of the upper), then transpose: two counting
+    // passes give columns with sorted rows without a comparison sort.
+    const rowPtr = new Int32Array(n + 1);
+    for (let k = 0; k < nz; k++) rowPtr[rows[k] + 1]++;
+    for (let i = 0; i < n; i++) rowPtr[i + 1] += rowPtr[i];
+    const byRowCol = new Int32Array(nz);
+    const byRowVal = new Float64Array(nz);
+    const next = rowPtr.slice(0, n);
+    for (let k = 0; k < nz; k++) {
+      const p = next[rows[k]]++;
+      byRowCol[p] = cols[k];
+      byRowVal[p] = vals[k];
+    }
+    const colCount = new Int32Array(n + 1);
+    for (let p = 0; p < nz; p++) colCount[byRowCol[p] + 1]++;
+    for (let j = 0; j < n; j++) colCount[j + 1] += colCount[j];
+    const tmpRow = new Int32Array(nz);
+    const tmpVal = new Float64Array(nz);
+    const cnext = colCount.slice(0, n);
+    for (let i = 0; i < n; i++) {
+      for (let p = rowPtr[i]; p < rowPtr[i + 1]; p++) {
+        const q = cnext[byRowCol[p]]++;
+        tmpRow[q] = i;
+        tmpVal[q] = byRowVal[p];
+      }
+    }
+    // Sum duplicates (rows within a column are now sorted, so duplicates are adjacent).
+    const colPtr = new Int32Array(n + 1);
+    let w = 0;
+    for (let j = 0; j < n; j++) {
+      const start = w;
+      for (let p = colCount[j]; p < colCount[j + 1]; p++) {
+        if (w > start && tmpRow[w - 1] === tmpRow[p]) tmpVal[w - 1] += tmpVal[p];
+        else {
+          tmpRow[w] = tmpRow[p];
+          tmpVal[w] = tmpVal[p];
+          w++;
+        }
+      }
+      colPtr[j + 1] = w;
+    }
+    return { n, colPtr, rowIdx: tmpRow.slice(0, w), values: tmpVal.slice(0, w) };
+  }
+}
+
+/** y ← A·x for a symmetric lower-stored A; x, y of length n, not aliased. */
+export function symmetricMultiply(a: SymmetricCsc, x: Float64Array, y: Float64Array): void {
+  const { n, colPtr, rowIdx, values } = a;
+  y.fill(0);
+  for (let j = 0; j < n; j++) {
+    const xj = x[j];
+    let s = 0;
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const i = rowIdx[p];
+      const v = values[p];
+      if (i === j) s += v * xj;
+      else {
+        y[i] += v * xj;
+        s += v * x[i];
+      }
+    }
+    y[j] += s;
+  }
+}
+
+/** Number of stored lower-triangle entries. */
+export function nnz(a: SymmetricCsc): number {
+  return a.colPtr[a.n];
+}
+
+/** Diagonal of A, length n (zeros where no diagonal entry is stored). */
+export function diagonal(a: SymmetricCsc): Float64Array {
+  const d = new Float64Array(a.n);
+  for (let j = 0; j < a.n; j++) {
+    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) if (a.rowIdx[p] === j) d[j] = a.values[p];
+  }
+  return d;
+}
+
+/** Dense copy, row-major n × n Float64Array (for tests and small problems). */
+export function toDenseArray(a: SymmetricCsc): Float64Array {
+  const n = a.n;
+  const d = new Float64Array(n * n);
+  for (let j = 0; j < n; j++) {
+    for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
+      const i = a.rowIdx[p];
+      d[i * n + j] += a.values[p];
+      if (i !== j) d[j * n + i] += a.values[p];
+    }
+  }
+  return d;
+}
+
+/** Builds a SymmetricCsc from a dense symmetric row-major array, keeping |v| > dropTol. */
+export function fromDenseArray(n: number, dense: ArrayLike<number>, dropTol = 0): SymmetricCsc {
+  const b = new CooBuilder(n, n * 4);
+  for (let j = 0; j < n; j++) {
+    for (let i = j; i < n; i++) {
+      const v = dense[i * n + j];
+      if (i === j || Math.abs(v) > dropTol) b.add(i, j, v);
+    }
+  }
+  return b.toCsc();
+}
+
+/**
+ * Union pattern of two symmetric matrices of the same size, with maps from each operand's
+ * entries into the union: `mapA[p]` is the union position of A's p-th entry. Used to form
+ * K − σM on one pattern for every shift.
+ */
+export interface UnionPattern {
+  readonly pattern: SymmetricCsc;
+  readonly mapA: Int32Array;
+  readonly mapB: Int32Array;
+}
+
+/** Union of the patterns of A and B (same n); `pattern.values` is zero-filled. */
+export function unionPattern(a: SymmetricCsc, b: SymmetricCsc): UnionPattern {
+  if (a.n !== b.n) throw new ArgumentError(`sizes differ (${a.n} and ${b.n}); pass matrices of one size`, 'n');
+  const n = a.n;
+  const colPtr = new Int32Array(n + 1);
+  const cap = nnz(a) + nnz(b);
+  const rowIdx = new Int32Array(cap);
+  const mapA = new Int32Array(nnz(a));
+  const mapB = new Int32Array(nnz(b));
+  let w = 0;
+  for (let j = 0; j < n; j++) {
+    let pa = a.colPtr[j];
+    let pb = b.colPtr[j];
+    const ea = a.colPtr[j + 1];
+    const eb = b.colPtr[j + 1];
+    while (pa < ea || pb < eb) {
+      const ra = pa < ea ? a.rowIdx[pa] : n;
+      const rb = pb < eb ? b.rowIdx[pb] : n;
+      if (ra === rb) {
+        mapA[pa++] = w;
+        mapB[pb++] = w;
+        rowIdx[w++] = ra;
+      } else if (ra < rb) {
+        mapA[pa++] = w;
+        rowIdx[w++] = ra;
+      } else {
+        mapB[pb++] = w;
+        rowIdx[w++] = rb;
+      }
+    }
+    colPtr[j + 1] = w;
+  }
+  return { pattern: { n, colPtr, rowIdx: rowIdx.slice(0, w), values: new Float64Array(w) }, mapA, mapB };
+}
+
+/** out ← α·A + β·B on the union pattern (out has the union's length). */
+export function combineOnUnion(u: UnionPattern, alpha: number, a: SymmetricCsc, beta: number, b: SymmetricCsc, out: Float64Array): void {
+  out.fill(0);
+  const va = a.values;
+  const vb = b.values;
+  for (let p = 0; p < va.length; p++) out[u.mapA[p]] += alpha * va[p];
+  for (let p = 0; p < vb.length; p++) out[u.mapB[p]] += beta * vb[p];
+}
