@@ -6,7 +6,7 @@ export default defineConfig([
     format: ['esm', 'cjs'],
     dts: true,
     sourcemap: true,
-    clean: true,
+    clean: false,
     target: 'node20',
     splitting: false,
   },
