@@ -7,6 +7,7 @@ import { commandHelp, parseArgs, type CommandSpec, type ParsedArgs } from './arg
 import type { CommandOutput } from './output';
 import { MODES_SPEC, runModes } from './commands/modes';
 import { EXPORT_SPEC, runExport } from './commands/export';
+import { REFERENCE_SPEC, runReference } from './commands/reference';
 import { VERSION } from '../version';
 
 interface Command {
@@ -17,6 +18,7 @@ interface Command {
 const COMMANDS: Record<string, Command> = {
   modes: { spec: MODES_SPEC, run: runModes },
   export: { spec: EXPORT_SPEC, run: runExport },
+  reference: { spec: REFERENCE_SPEC, run: runReference },
 };
 
 function overview(): string {
@@ -56,7 +58,7 @@ export function runCli(argv: readonly string[]): { status: number; stdout: strin
   try {
     const args = parseArgs(command.spec, rest);
     const out = command.run(args);
-    return { status: EXIT.ok, stdout: out.stdout, stderr: out.stderr };
+    return { status: out.status ?? EXIT.ok, stdout: out.stdout, stderr: out.stderr };
   } catch (e) {
     if (e instanceof EigenframeError) {
       const usage = e.name === 'ArgumentError' && (e.path.startsWith('-') || e.path === name);

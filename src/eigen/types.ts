@@ -16,6 +16,20 @@ export interface SturmCheck {
   readonly returnedBelow: number;
   /** True when the counts agree (no mode was missed). */
   readonly passed: boolean;
+  /**
+   * Lower end of the checked interval, when the check covered a window [lowerShift, shift)
+   * (modes near a target, or in a range) rather than everything below `shift`. Counts then
+   * refer to that window: countBelow − countBelowLower eigenvalues lie in it.
+   */
+  readonly lowerShift?: number;
+  /** Negative pivots of K − lowerShift·M (eigenvalues below the window). */
+  readonly countBelowLower?: number;
+  /**
+   * Eigenvalues the solver computed and verified inside the checked interval but does not
+   * return (e.g. the second copy of a pair split by `count`); passed means
+   * countBelow − (countBelowLower ?? 0) = returnedBelow + (extraBelow ?? 0).
+   */
+  readonly extraBelow?: number;
 }
 
 /** Outcome of a generalized symmetric eigen solve. */

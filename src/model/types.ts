@@ -113,4 +113,9 @@ export interface AssembledModel {
   readonly dofs: readonly DofInfo[];
   /** Node coordinates, length 3·nodes (x, y, z; z = 0 in the plane), m. */
   readonly coordinates: Float64Array;
+  /**
+   * dofMap[6·node + slot] = free DOF index, or −1 when the node lacks that DOF or it is
+   * supported; slots in the order ux, uy, uz, rx, ry, rz (length 6·nodes). Set by `assemble`.
+   */
+  readonly dofMap?: Int32Array;
 }

@@ -30,6 +30,8 @@ export interface SymbolicFactor {
   readonly supernodes: number;
   /** Nonzeros of the pattern this analysis was made for (values passed to factorize must match). */
   readonly patternNnz: number;
+  /** With `ordering: 'auto'`: every candidate ordering with its measured nnz(L) and flops. */
+  readonly candidates?: ReadonlyArray<{ readonly ordering: string; readonly nnzL: number; readonly flops: number }>;
 }
 
 export interface FactorizeOptions {
@@ -49,6 +51,8 @@ export interface LdltFactor {
   readonly negativePivots: number;
   /** Smallest |d| / max |A_jj| met, a conditioning hint. */
   readonly minPivotRatio: number;
+  /** Bytes held by the factor (values of L and D, the structure it keeps, solve workspace). */
+  readonly memoryBytes?: number;
   /** x ← A⁻¹ b; b and x of length n, may alias; no allocation. */
   solve(b: Float64Array, x: Float64Array): void;
   /** X ← A⁻¹ B for k right-hand sides, column-major n × k; may alias. */

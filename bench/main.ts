@@ -1,0 +1,291 @@
+/**
+ * eigenframe benchmark: `npm run bench [-- --quick] [-- --case NAME ...]`.
+ *
+ * Each (case, engine) runs in its own child process (this same script with `--child`), so the
+ * peak memory reported is that case's own. Baselines run in the same invocation on the same K
+ * and M: SciPy's eigsh (when python3 has SciPy) on every case, and, on the plane frames of
+ * 300–1,500 DOF, our dense solver and ml-matrix's dense route. Prints one report to stdout
+ * (progress goes to stderr) and writes bench/out/results.json.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { CASES, selectCases } from './cases';
+import type { BenchCase } from './cases';
+import { MODE_COUNT, runCase } from './child';
+import type { CaseRecord } from './child';
+import type { EngineName } from './engine';
+import { growthExponent } from './fit';
+import { fmtCount, fmtMiB, fmtRatio, fmtSci, fmtSeconds, maxRelativeDifference, renderTable } from './table';
+
+/** What bench/scipy_eigsh.py prints. */
+interface ScipyRecord {
+  seconds: number;
+  cpu_seconds: number;
+  read_seconds: number;
+  maxrss_mib: number;
+  solve_peak_mib: number | null;
+  n: number;
+  nnz_lower: number;
+  eigenvalues: number[];
+}
+
+interface Flags {
+  quick: boolean;
+  cases: string[];
+  /** Per-child time limit, minutes. */
+  timeoutMinutes: number;
+}
+
+const USAGE = `usage: node dist/bench.js [--quick] [--case NAME]... [--timeout-min N]
+cases: ${CASES.map((c) => c.name).join(', ')} (or a family: building, footbridge, dense)`;
+
+function parseFlags(argv: readonly string[]): Flags {
+  const flags: Flags = { quick: false, cases: [], timeoutMinutes: 30 };
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === '--quick') flags.quick = true;
+    else if (a === '--case' && i + 1 < argv.length) flags.cases.push(argv[++i]);
+    else if (a === '--timeout-min' && i + 1 < argv.length) flags.timeoutMinutes = Number(argv[++i]);
+    else {
+      process.stderr.write(`bench: unknown or incomplete flag "${a}"\n${USAGE}\n`);
+      process.exit(2);
+    }
+  }
+  const known = new Set([...CASES.map((c) => c.name), 'building', 'footbridge', 'dense']);
+  for (const n of flags.cases) {
+    if (!known.has(n)) {
+      process.stderr.write(`bench: no case "${n}"\n${USAGE}\n`);
+      process.exit(2);
+    }
+  }
+  return flags;
+}
+
+// ---- child side ----
+
+function childMain(argv: readonly string[]): void {
+  const [name, engine, outFile, mtxDir] = argv;
+  const c = CASES.find((x) => x.name === name);
+  if (!c) throw new Error(`no case ${name}`);
+  const record = runCase(c, engine as EngineName, mtxDir || undefined);
+  writeFileSync(outFile, JSON.stringify(record));
+}
+
+// ---- parent side ----
+
+function runChild(c: BenchCase, engine: EngineName, work: string, mtxDir: string | undefined, timeoutMs: number): CaseRecord | { case: string; engine: EngineName; error: string } {
+  const out = join(work, `${c.name}.${engine}.json`);
+  const args = [...process.execArgv, process.argv[1], '--child', c.name, engine, out, mtxDir ?? ''];
+  const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'], timeout: timeoutMs });
+  if (existsSync(out)) return JSON.parse(readFileSync(out, 'utf8')) as CaseRecord;
+  const why = r.error ? r.error.message : r.signal ? `killed by ${r.signal}` : `exit status ${r.status}`;
+  return { case: c.name, engine, error: `child failed (${why})` };
+}
+
+function findScipyScript(): string | undefined {
+  const candidates = [resolve(dirname(process.argv[1]), '..', 'bench', 'scipy_eigsh.py'), resolve(process.cwd(), 'bench', 'scipy_eigsh.py')];
+  return candidates.find((p) => existsSync(p));
+}
+
+function scipyAvailable(): boolean {
+  const r = spawnSync('python3', ['-c', 'import scipy'], { stdio: 'ignore' });
+  return r.status === 0;
+}
+
+function runScipy(script: string, mtxDir: string, timeoutMs: number): ScipyRecord | { error: string } {
+  // One thread, as ours: SuperLU is sequential, and BLAS threads would only blur the comparison.
+  const env = { ...process.env, OMP_NUM_THREADS: '1', OPENBLAS_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
+  const r = spawnSync('python3', [script, join(mtxDir, 'K.mtx'), join(mtxDir, 'M.mtx'), String(MODE_COUNT)], { env, encoding: 'utf8', timeout: timeoutMs, maxBuffer: 1 << 24 });
+  if (r.status !== 0) return { error: `python3 failed (${r.error?.message ?? r.signal ?? `status ${r.status}`}): ${(r.stderr ?? '').trim().split('\n').slice(-1)[0] ?? ''}` };
+  const last = r.stdout.trim().split('\n').slice(-1)[0];
+  return JSON.parse(last) as ScipyRecord;
+}
+
+type Outcome = CaseRecord | { case: string; engine: EngineName; error: string };
+
+function ok(r: Outcome | undefined): r is CaseRecord {
+  return r !== undefined && 'dof' in r && r.error === undefined;
+}
+
+function checkText(r: CaseRecord): string {
+  if (r.engine === 'mlmatrix') return '';
+  const bad: string[] = [];
+  if (!(r.check.maxResidual <= 1e-8)) bad.push(`res ${fmtSci(r.check.maxResidual)}`);
+  if (!(r.check.orthogonalityError <= 1e-10)) bad.push(`orth ${fmtSci(r.check.orthogonalityError)}`);
+  if (r.check.sturmPassed === false) bad.push('sturm FAIL');
+  if (r.check.sturmPassed === null) bad.push('no sturm');
+  return bad.length === 0 ? 'ok' : bad.join(' ');
+}
+
+function parentMain(argv: readonly string[]): void {
+  const flags = parseFlags(argv);
+  const selected = selectCases(flags.cases, flags.quick);
+  const timeoutMs = flags.timeoutMinutes * 60_000;
+  const load0 = loadavg()[0];
+  const work = mkdtempSync(join(tmpdir(), 'eigenframe-bench-'));
+  const script = findScipyScript();
+  const haveScipy = script !== undefined && scipyAvailable();
+  const scipyNote = haveScipy ? '' : script === undefined ? 'bench/scipy_eigsh.py not found' : 'python3 cannot import scipy';
+
+  const sparse = new Map<string, Outcome>();
+  const dense = new Map<string, Outcome>();
+  const ml = new Map<string, Outcome>();
+  const scipy = new Map<string, ScipyRecord | { error: string }>();
+  const progress = (s: string): void => void process.stderr.write(`[bench ${new Date().toISOString().slice(11, 19)}] ${s}\n`);
+
+  try {
+    for (const c of selected) {
+      const mtxDir = haveScipy ? join(work, c.name) : undefined;
+      progress(`${c.name}: sparse`);
+      const r = runChild(c, 'sparse', work, mtxDir, timeoutMs);
+      sparse.set(c.name, r);
+      if (!ok(r)) progress(`${c.name}: ${r.error}`);
+      if (haveScipy && mtxDir && existsSync(join(mtxDir, 'K.mtx'))) {
+        progress(`${c.name}: scipy`);
+        scipy.set(c.name, runScipy(script!, mtxDir, timeoutMs));
+        rmSync(mtxDir, { recursive: true, force: true });
+      }
+      if (c.family === 'dense') {
+        progress(`${c.name}: our dense solver`);
+        dense.set(c.name, runChild(c, 'dense', work, undefined, timeoutMs));
+        progress(`${c.name}: ml-matrix dense route`);
+        ml.set(c.name, runChild(c, 'mlmatrix', work, undefined, timeoutMs));
+      }
+    }
+  } finally {
+    rmSync(work, { recursive: true, force: true });
+  }
+
+  // ---- report ----
+  const lines: string[] = [];
+  lines.push(`eigenframe benchmark — lowest ${MODE_COUNT} modes; node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}; ${new Date().toISOString()}`);
+  lines.push(`load average (1 min) at start ${load0.toFixed(2)}, at end ${loadavg()[0].toFixed(2)}: wall times grow with other load on the machine, CPU times much less.`);
+  lines.push('');
+  const sparseCases = selected.filter((c) => c.family !== 'dense');
+  const header = ['case', 'DOF', 'assembly s', 'analyse s', 'factor s', 'iter s', 'verify s', 'total s', 'solve cpu s', 'nnz(L)', 'peak MiB', 'check', 'SciPy s', 'time ours/SciPy', 'cpu ours/SciPy', 'SciPy MiB', 'mem ours/SciPy', 'max rel Δλ'];
+  const rows: string[][] = [];
+  for (const c of selected) {
+    const r = sparse.get(c.name);
+    if (!ok(r)) {
+      rows.push([c.name, 'error: ' + (r?.error ?? 'not run')]);
+      continue;
+    }
+    const s = scipy.get(c.name);
+    const sOk = s !== undefined && !('error' in s);
+    const sPeak = sOk ? (s.solve_peak_mib ?? s.maxrss_mib) : NaN;
+    const oPeak = Number.isFinite(r.solvePeakMiB) && sOk && s.solve_peak_mib !== null ? r.solvePeakMiB : r.peakMiB;
+    rows.push([
+      c.name,
+      fmtCount(r.dof),
+      fmtSeconds(r.seconds.assembly),
+      fmtSeconds(r.seconds.analyse),
+      fmtSeconds(r.seconds.factorization),
+      fmtSeconds(r.seconds.iterations),
+      fmtSeconds(r.seconds.verify),
+      fmtSeconds(r.seconds.total),
+      fmtSeconds(r.solveCpuSeconds),
+      fmtCount(r.nnzL),
+      fmtMiB(r.peakMiB),
+      checkText(r),
+      sOk ? fmtSeconds(s.seconds) : 'n/a',
+      sOk ? fmtRatio(r.seconds.solve / s.seconds) : 'n/a',
+      sOk ? fmtRatio(r.solveCpuSeconds / s.cpu_seconds) : 'n/a',
+      sOk ? fmtMiB(sPeak) : 'n/a',
+      sOk ? fmtRatio(oPeak / sPeak) : 'n/a',
+      sOk ? fmtSci(maxRelativeDifference(r.eigenvalues, s.eigenvalues)) : 'n/a',
+    ]);
+  }
+  lines.push(renderTable(header, rows));
+  lines.push('');
+  lines.push('Times in seconds, wall clock. assembly = validateModel + assemble; total = assembly + solve call (analyse + factor + iter + verify: residuals, orthogonality, Sturm count).');
+  lines.push('peak MiB: whole child process (getrusage maxRSS), model generation included.');
+  lines.push("check: every mode's relative residual ≤ 1e-8, M-orthonormality ≤ 1e-10, Sturm count passed.");
+  if (haveScipy) {
+    lines.push('SciPy: eigsh(K, 20, M, sigma=0) (ARPACK + SuperLU), one thread, on the same K and M read from Matrix Market;');
+    lines.push('  SciPy s = eigsh call only; time ours/SciPy = our solve call / SciPy s (assembly excluded: SciPy gets K and M ready);');
+    lines.push('  cpu ours/SciPy: the same with process CPU time (ours counts the Node GC helper threads too);');
+    lines.push('  SciPy MiB and mem ours/SciPy compare peak resident memory during the solve alone, K and M loaded, on both sides');
+    lines.push('  (high-water mark reset before the solve); max rel Δλ = max over the 20 modes of |λ_ours − λ_SciPy| / λ_SciPy.');
+    const failed = [...scipy.entries()].filter(([, v]) => 'error' in v);
+    for (const [n, v] of failed) lines.push(`  SciPy failed on ${n}: ${(v as { error: string }).error}`);
+  } else {
+    lines.push(`SciPy columns n/a: ${scipyNote}.`);
+  }
+
+  // Growth exponent per family.
+  lines.push('');
+  const fits: Record<string, { total: number; solve: number; dofs: number[] }> = {};
+  for (const family of ['building', 'footbridge'] as const) {
+    const recs = sparseCases.filter((c) => c.family === family).map((c) => sparse.get(c.name)).filter(ok);
+    if (recs.length < 2) continue;
+    const dofs = recs.map((r) => r.dof);
+    const total = growthExponent(dofs, recs.map((r) => r.seconds.total));
+    const solveExp = growthExponent(dofs, recs.map((r) => r.seconds.solve));
+    fits[family] = { total, solve: solveExp, dofs };
+    lines.push(`growth exponent (least squares, log total time vs log DOF) ${family}: ${total.toFixed(2)} over ${recs.length} sizes (${fmtCount(dofs[0])}–${fmtCount(dofs[dofs.length - 1])} DOF); solve only: ${solveExp.toFixed(2)}`);
+  }
+
+  // Dense baselines.
+  const denseCases = selected.filter((c) => c.family === 'dense');
+  if (denseCases.length > 0) {
+    lines.push('');
+    lines.push('Dense baselines (plane frames sized to the DOF count), solve call in seconds (wall) from the same K and M;');
+    lines.push("ours dense = solve(K, M, { method: 'dense' }); ml-matrix = Cholesky of M, EigenvalueDecomposition of L⁻¹KL⁻ᵀ, modes x = L⁻ᵀy:");
+    const dh = ['case', 'DOF', 'ours sparse s', 'ours dense s', 'ml-matrix s', 'ml-matrix/ours sparse', 'ml-matrix/ours dense', 'same, cpu: ml-matrix/ours sparse', 'SciPy s', 'max rel Δλ ml-matrix'];
+    const drows: string[][] = [];
+    for (const c of denseCases) {
+      const s = sparse.get(c.name);
+      const d = dense.get(c.name);
+      const m = ml.get(c.name);
+      const sp = scipy.get(c.name);
+      const dof = ok(s) ? s.dof : ok(m) ? m.dof : NaN;
+      drows.push([
+        c.name,
+        fmtCount(dof),
+        ok(s) ? fmtSeconds(s.seconds.solve) : 'error',
+        ok(d) ? fmtSeconds(d.seconds.solve) : 'error',
+        ok(m) ? fmtSeconds(m.seconds.solve) : 'error',
+        ok(s) && ok(m) ? fmtRatio(m.seconds.solve / s.seconds.solve) : '–',
+        ok(d) && ok(m) ? fmtRatio(m.seconds.solve / d.seconds.solve) : '–',
+        ok(s) && ok(m) ? fmtRatio(m.solveCpuSeconds / s.solveCpuSeconds) : '–',
+        sp && !('error' in sp) ? fmtSeconds(sp.seconds) : 'n/a',
+        ok(s) && ok(m) ? fmtSci(maxRelativeDifference(s.eigenvalues, m.eigenvalues)) : '–',
+      ]);
+    }
+    lines.push(renderTable(dh, drows));
+    const errs = denseCases.flatMap((c) => [dense.get(c.name), ml.get(c.name), sparse.get(c.name)]).filter((r) => r && !ok(r)) as Outcome[];
+    for (const e of errs) lines.push(`  ${e.case} (${e.engine}): ${e.error}`);
+  }
+
+  const report = lines.join('\n');
+  process.stdout.write(report + '\n');
+
+  const outDir = resolve(findScipyScript() ? dirname(findScipyScript()!) : join(process.cwd(), 'bench'), 'out');
+  mkdirSync(outDir, { recursive: true });
+  const json = {
+    date: new Date().toISOString(),
+    node: process.version,
+    cpu: cpus()[0]?.model,
+    flags,
+    modeCount: MODE_COUNT,
+    scipy: haveScipy ? 'available' : scipyNote,
+    cases: selected.map((c) => ({
+      name: c.name,
+      family: c.family,
+      sparse: sparse.get(c.name),
+      dense: dense.get(c.name),
+      mlmatrix: ml.get(c.name),
+      scipy: scipy.get(c.name),
+    })),
+    growthExponents: fits,
+    report,
+  };
+  writeFileSync(join(outDir, 'results.json'), JSON.stringify(json, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
+  process.stderr.write(`[bench] wrote ${join(outDir, 'results.json')}\n`);
+}
+
+const argv = process.argv.slice(2);
+if (argv[0] === '--child') childMain(argv.slice(1));
+else parentMain(argv);

@@ -1,0 +1,10 @@
+/** Generalized symmetric eigensolvers K x = λ M x; knows nothing about structures. */
+export type { EigenMethod, EigenResult, SturmCheck } from './types';
+export { solve, SOLVE_DEFAULTS, DENSE_CROSSOVER, type SolveOptions, type SolveMethod } from './solve';
+export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions } from './dense/index';
+export { lanczos, LANCZOS_DEFAULTS, type LanczosOptions, type LanczosResult, type ProgressCallback } from './lanczos';
+export { subspaceIteration, SUBSPACE_DEFAULTS, type SubspaceOptions, type SubspaceResult } from './subspace';
+export { sturmCount, sturmCheck, type SturmCheckOptions } from './sturm';
+export { residuals, orthogonalityError, matrixNorm1, type SymmetricOperand } from './verify';
+export { matrixOperator, shiftInvertOperator, inverseOperator } from './operators';
+export { mlMatrixGeneralized, type BaselineResult } from './baseline';

@@ -1,0 +1,628 @@
+/**
+ * The one entry for K x = λ M x: picks a method, a shift strategy and a mode selection
+ * (lowest N, all in a window, nearest a target), runs it, verifies the result and reports the
+ * numbers of the run.
+ *
+ * Sparse path (Grimes, Lewis & Simon 1994, §3–4): analyse the union pattern of K and M once,
+ * factorize K − σM, run shift-invert Lanczos (or subspace iteration) for the modes nearest σ,
+ * Rayleigh–Ritz the converged vectors with K and M, then prove with a Sturm count that no mode
+ * was missed; when one was (the second copy of a repeated eigenvalue), run again from a new
+ * start vector kept M-orthogonal to the modes already found, until the counts agree.
+ */
+import { ArgumentError, VerificationError } from '../errors';
+import type { OrderingName, SymbolicFactor } from '../linalg/ldlt/types';
+import type { SymmetricCsc } from '../linalg/sparse/symmetric';
+import { assertAccepted } from './accept';
+import { denseEigen } from './dense/index';
+import { lanczos, type ProgressCallback } from './lanczos';
+import { inverseOperator, matrixOperator, type BlockOperator } from './operators';
+import { ShiftedPencil } from './pencil';
+import { rayleighRitz } from './ritz';
+import { sturmCheck } from './sturm';
+import { subspaceIteration } from './subspace';
+import type { EigenMethod, EigenResult, SturmCheck } from './types';
+import { matrixNorm1, orthogonalityError, residuals } from './verify';
+
+/** Methods `solve` accepts: `auto`, `dense` (= the dense default, Cholesky), or a named one. */
+export type SolveMethod = 'auto' | 'dense' | EigenMethod;
+
+/**
+ * Problem size (DOFs) up to which `auto` uses the dense solver. Measured on banded and random
+ * sparse pairs, 20 modes (see the report in the eigen tests' header): below this the dense
+ * Cholesky route is as fast as the sparse path, above it the sparse path wins.
+ */
+export const DENSE_CROSSOVER = 200;
+
+/**
+ * Free-free structures (K singular): the lowest-modes shift is σ = −FREE_SHIFT · trace(K)/trace(M),
+ * a small fraction of a typical eigenvalue, so that K − σM is positive definite, rigid-body modes
+ * have the largest θ = 1/(λ − σ) and come out first, with λ ≈ 0 (possibly a tiny negative number).
+ */
+export const FREE_SHIFT = 1e-6;
+
+/** Sturm/rerun rounds before a missed mode is reported as a VerificationError. */
+export const MAX_ROUNDS = 8;
+
+/** Modes solved per shift in a range; wider windows are split at Sturm-counted midpoints. */
+export const RANGE_BLOCK = 48;
+
+export interface SolveOptions {
+  /** Lowest N modes (or, with `near`, the N nearest the target). @defaultValue 20 */
+  count?: number;
+  /**
+   * All modes with λ in [λlow, λhigh] (rad²/s²); the Sturm counts at both ends give the exact
+   * number, and the result holds exactly that many. Overrides `count`. @defaultValue none
+   */
+  range?: readonly [number, number];
+  /** The `count` modes whose λ is nearest this target (rad²/s²). @defaultValue none */
+  near?: number;
+  /**
+   * `auto`: dense up to DENSE_CROSSOVER DOFs, else `lanczos`. `dense`: the dense Cholesky route.
+   * `jacobi`, `cholesky`: dense methods by name. `lanczos`, `subspace`: the sparse shift-invert
+   * methods. @defaultValue 'auto'
+   */
+  method?: SolveMethod;
+  /**
+   * Explicit shift σ (rad²/s²) of the sparse methods. Default: lowest modes, 0 if K is positive
+   * definite, else −FREE_SHIFT · trace(K)/trace(M); `near`: the target; `range`: each window's
+   * midpoint. @defaultValue automatic
+   */
+  shift?: number;
+  /**
+   * Convergence tolerance of the sparse methods: Lanczos accepts ‖OP y − θy‖_M ≤ tol·|θ|,
+   * subspace iteration a relative residual ≤ tol. @defaultValue 1e-12 (lanczos), 1e-11 (subspace)
+   */
+  tolerance?: number;
+  /** Seed of the start vectors (same seed, same result, bit for bit). @defaultValue 1 */
+  seed?: number;
+  /** Progress: (phase, fraction in [0, 1]); phases 'analyse', 'factorize', 'lanczos' | 'subspace', 'verify'. */
+  onProgress?: ProgressCallback;
+  /** Stops a long solve; AbortedError (path `signal`) is thrown. */
+  signal?: AbortSignal;
+  /** Fill-reducing ordering of the sparse factorization. @defaultValue 'auto' */
+  ordering?: OrderingName | Int32Array;
+  /**
+   * An analysis of the union pattern of K and M (`analyse(unionPattern(K, M).pattern)`), reused
+   * across design variants with the same pattern. @defaultValue none (analysed here)
+   */
+  symbolic?: SymbolicFactor;
+  /**
+   * Check residuals (≤ 1e-8), M-orthonormality (≤ 1e-10) and the Sturm count, throwing
+   * VerificationError when one fails. With false, residuals and orthogonality are still
+   * reported but nothing throws, and no Sturm count is made (so missed repeated copies are not
+   * searched for). @defaultValue true
+   */
+  verify?: boolean;
+}
+
+/** Defaults of {@link SolveOptions} (those that have a fixed value). */
+export const SOLVE_DEFAULTS = {
+  count: 20,
+  method: 'auto',
+  seed: 1,
+  ordering: 'auto',
+  verify: true,
+} as const;
+
+const METHODS: readonly SolveMethod[] = ['auto', 'dense', 'jacobi', 'cholesky', 'lanczos', 'subspace'];
+
+/** Pairs found so far: ascending λ, M-orthonormal X and M·X, column-major n × m. */
+interface Pool {
+  m: number;
+  values: Float64Array;
+  x: Float64Array;
+  mx: Float64Array;
+}
+
+/**
+ * Eigenpairs of K x = λ M x: the lowest `count`, all in `range`, or the `count` nearest `near`.
+ * @param K - stiffness, n × n symmetric, lower CSC (N/m, N·m/rad); not modified
+ * @param M - mass, n × n symmetric positive semidefinite, lower CSC (kg, kg·m²); not modified.
+ *   Massless DOFs give infinite eigenvalues, which are never returned.
+ * @param options - see {@link SolveOptions}; defaults in {@link SOLVE_DEFAULTS}
+ * @returns eigenvalues ascending (rad²/s²), M-orthonormal modes column-major n × m, residuals,
+ *   orthogonality error, Sturm check, and stats. Sparse path stats: `iterations` (Lanczos steps
+ *   or subspace iterations), `restarts`, `operatorApplications` (solves with the factor),
+ *   `factorizations` (all, Sturm checks included), `rounds` (reruns after a Sturm count found a
+ *   missed mode), `shift` (σ of the last iteration factor), `nnzL`, and milliseconds per phase:
+ *   `analyseMs`, `factorizeMs` (iteration shifts and range-end counts), `iterationMs`,
+ *   `verifyMs` (Rayleigh–Ritz, Sturm-check factorizations, residuals, orthogonality),
+ *   `totalMs`. Dense path: the dense solver's stats plus `factorizations`, `verifyMs`, `totalMs`.
+ * @throws ArgumentError (path = the option, `K` or `M`) for bad input, including a count above
+ *   the number of finite eigenvalues; VerificationError (path `modes[k]`) when the result fails
+ *   its checks; FactorizationError when K and M share a null vector; AbortedError when aborted
+ */
+export function solve(K: SymmetricCsc, M: SymmetricCsc, options: SolveOptions = {}): EigenResult {
+  const t0 = performance.now();
+  const given = Object.fromEntries(Object.entries(options).filter(([, v]) => v !== undefined)) as SolveOptions;
+  const o: Resolved = { ...SOLVE_DEFAULTS, ...given };
+  validate(K, M, o);
+  const n = K.n;
+  const method: Exclude<SolveMethod, 'auto' | 'dense'> =
+    o.method === 'auto' ? (n <= DENSE_CROSSOVER ? 'cholesky' : 'lanczos') : o.method === 'dense' ? 'cholesky' : o.method;
+  if (method === 'cholesky' || method === 'jacobi') return solveDense(K, M, o, method, t0);
+  return solveSparse(K, M, o, method, t0);
+}
+
+type Resolved = SolveOptions & {
+  count: number;
+  method: SolveMethod;
+  seed: number;
+  ordering: OrderingName | Int32Array;
+  verify: boolean;
+};
+
+function validate(K: SymmetricCsc, M: SymmetricCsc, o: Resolved): void {
+  if (!K || !(K.colPtr instanceof Int32Array)) throw new ArgumentError('is not a SymmetricCsc; build it with CooBuilder.toCsc', 'K');
+  if (!M || !(M.colPtr instanceof Int32Array)) throw new ArgumentError('is not a SymmetricCsc; build it with CooBuilder.toCsc', 'M');
+  if (M.n !== K.n) throw new ArgumentError(`M is ${M.n} × ${M.n} but K is ${K.n} × ${K.n}; pass matrices of one size`, 'M');
+  if (K.n < 1) throw new ArgumentError('has dimension 0; pass a matrix with at least one DOF', 'K');
+  if (!METHODS.includes(o.method)) throw new ArgumentError(`unknown method ${JSON.stringify(o.method)}; use one of ${METHODS.join(', ')}`, 'method');
+  if (!Number.isInteger(o.count) || o.count < 1) throw new ArgumentError(`count is ${o.count}; pass a positive integer`, 'count');
+  if (o.range !== undefined) {
+    const r = o.range;
+    if (!Array.isArray(r) || r.length !== 2 || !Number.isFinite(r[0]) || !Number.isFinite(r[1]) || !(r[0] < r[1])) {
+      throw new ArgumentError(`range is ${JSON.stringify(r)}; pass [λlow, λhigh] with finite λlow < λhigh in rad²/s²`, 'range');
+    }
+    if (o.near !== undefined) throw new ArgumentError('cannot be combined with range; pass either range or near', 'near');
+  }
+  if (o.near !== undefined && !Number.isFinite(o.near)) throw new ArgumentError(`near is ${o.near}; pass a finite target eigenvalue in rad²/s²`, 'near');
+  if (o.shift !== undefined && !Number.isFinite(o.shift)) throw new ArgumentError(`shift is ${o.shift}; pass a finite number in rad²/s²`, 'shift');
+  if (o.tolerance !== undefined && !(o.tolerance > 0 && o.tolerance < 1e-8)) {
+    throw new ArgumentError(`tolerance is ${o.tolerance}; pass a number in (0, 1e-8) so that results can meet the 1e-8 residual target`, 'tolerance');
+  }
+  if (!Number.isInteger(o.seed)) throw new ArgumentError(`seed is ${o.seed}; pass an integer`, 'seed');
+}
+
+/** Number of DOFs whose row of M is not entirely zero: an upper bound on the finite eigenvalues. */
+function massiveDofs(M: SymmetricCsc): number {
+  const has = new Uint8Array(M.n);
+  for (let j = 0; j < M.n; j++) {
+    for (let p = M.colPtr[j]; p < M.colPtr[j + 1]; p++) {
+      if (M.values[p] !== 0) {
+        has[j] = 1;
+        has[M.rowIdx[p]] = 1;
+      }
+    }
+  }
+  let c = 0;
+  for (let i = 0; i < M.n; i++) c += has[i];
+  return c;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Dense path
+// ---------------------------------------------------------------------------------------------
+
+function solveDense(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'cholesky' | 'jacobi', t0: number): EigenResult {
+  o.onProgress?.(method, 0);
+  const all = denseEigen(K, M, { method, residualTolerance: Infinity, orthogonalityTolerance: Infinity });
+  o.onProgress?.(method, 1);
+  const total = all.eigenvalues.length;
+  const n = K.n;
+  let first = 0;
+  let m: number;
+  if (o.range) {
+    while (first < total && all.eigenvalues[first] < o.range[0]) first++;
+    let last = first;
+    while (last < total && all.eigenvalues[last] <= o.range[1]) last++;
+    m = last - first;
+  } else {
+    if (o.count > total) throw countError(o.count, total, n);
+    m = o.count;
+    if (o.near !== undefined) [first] = nearestBlock(all.eigenvalues, o.near, m);
+  }
+  const values = all.eigenvalues.slice(first, first + m);
+  const vectors = all.vectors.slice(first * n, (first + m) * n);
+  const tv = performance.now();
+  let sturm: SturmCheck | undefined;
+  let pencil: ShiftedPencil | undefined;
+  if (o.verify && m > 0) {
+    pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
+    if (o.range) sturm = rangeCheck(pencil, o.range, m);
+    else sturm = sturmCheck(pencil, all.eigenvalues, m, first, { window: o.near !== undefined, minimumGap: 1e-9 * pencil.typicalEigenvalue });
+  }
+  const normK = matrixNorm1(K);
+  const res = residuals(K, M, values, vectors, normK);
+  const orth = orthogonalityError(M, vectors, m);
+  if (o.verify) assertAccepted(values, res, orth, sturm);
+  const verifyMs = performance.now() - tv;
+  return {
+    n,
+    eigenvalues: values,
+    vectors,
+    residuals: res,
+    orthogonalityError: orth,
+    ...(sturm ? { sturm } : {}),
+    method,
+    stats: {
+      ...all.stats,
+      factorizations: pencil?.factorizations ?? 0,
+      verifyMs,
+      totalMs: performance.now() - t0,
+    },
+  };
+}
+
+function countError(count: number, finite: number, n: number): ArgumentError {
+  return new ArgumentError(
+    `count is ${count} but the problem has only ${finite} finite eigenvalues (${n} DOFs; massless DOFs have none); pass a count from 1 to ${finite}`,
+    'count',
+  );
+}
+
+/** Start index of the m values nearest the target in an ascending list (a contiguous block). */
+function nearestBlock(values: Float64Array, target: number, m: number): [number, number] {
+  let lo = 0;
+  let hi = values.length; // the block is [lo, hi); shrink from the farther end
+  while (hi - lo > m) {
+    if (Math.abs(values[lo] - target) > Math.abs(values[hi - 1] - target)) lo++;
+    else hi--;
+  }
+  return [lo, hi];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Sparse path
+// ---------------------------------------------------------------------------------------------
+
+interface Run {
+  readonly pencil: ShiftedPencil;
+  readonly kop: BlockOperator;
+  readonly mop: BlockOperator;
+  readonly normK: number;
+  readonly o: Resolved;
+  readonly method: 'lanczos' | 'subspace';
+  iterations: number;
+  restarts: number;
+  applications: number;
+  iterationMs: number;
+  /** Time in Rayleigh–Ritz and Sturm checks during the iteration rounds. */
+  verifyMs: number;
+  /** Factorization time spent inside Sturm checks (part of verifyMs, not of factorizeMs). */
+  sturmFactorizeMs: number;
+  rounds: number;
+  seed: number;
+}
+
+function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lanczos' | 'subspace', t0: number): EigenResult {
+  const n = K.n;
+  o.onProgress?.('analyse', 0);
+  const pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
+  o.onProgress?.('analyse', 1);
+  const run: Run = {
+    pencil,
+    kop: matrixOperator(K),
+    mop: matrixOperator(M),
+    normK: matrixNorm1(K),
+    o,
+    method,
+    iterations: 0,
+    restarts: 0,
+    applications: 0,
+    iterationMs: 0,
+    verifyMs: 0,
+    sturmFactorizeMs: 0,
+    rounds: 0,
+    seed: o.seed,
+  };
+  const massive = massiveDofs(M);
+  let values: Float64Array;
+  let vectors: Float64Array;
+  let sturm: SturmCheck | undefined;
+  let shiftUsed: number;
+  if (o.range) {
+    ({ values, vectors, sturm, shiftUsed } = solveRange(run, o.range));
+  } else {
+    if (o.count > massive) throw countError(o.count, massive, n);
+    ({ values, vectors, sturm, shiftUsed } = o.near !== undefined ? solveNear(run, o.near, o.count) : solveLowest(run, o.count));
+  }
+  const tv = performance.now();
+  o.onProgress?.('verify', 0);
+  const m = values.length;
+  const res = residuals(K, M, values, vectors, run.normK);
+  const orth = orthogonalityError(M, vectors, m);
+  if (o.verify) assertAccepted(values, res, orth, sturm);
+  o.onProgress?.('verify', 1);
+  const verifyMs = performance.now() - tv;
+  return {
+    n,
+    eigenvalues: values,
+    vectors,
+    residuals: res,
+    orthogonalityError: orth,
+    ...(sturm ? { sturm } : {}),
+    method,
+    stats: {
+      iterations: run.iterations,
+      restarts: run.restarts,
+      operatorApplications: run.applications,
+      factorizations: pencil.factorizations,
+      rounds: run.rounds,
+      shift: shiftUsed,
+      nnzL: pencil.symbolic.nnzL,
+      analyseMs: pencil.msAnalyse,
+      factorizeMs: pencil.msFactorize - run.sturmFactorizeMs,
+      iterationMs: run.iterationMs,
+      verifyMs: verifyMs + run.verifyMs,
+      totalMs: performance.now() - t0,
+    },
+  };
+}
+
+interface Found {
+  values: Float64Array;
+  vectors: Float64Array;
+  sturm?: SturmCheck;
+  shiftUsed: number;
+}
+
+/**
+ * One method run for the `want` pairs nearest σ, kept M-orthogonal to the pool; the pool is
+ * then extended and Rayleigh–Ritz'd with K and M (ritz.ts), which leaves it ascending and
+ * M-orthonormal. Returns whether the Krylov space was exhausted.
+ */
+function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: number): boolean {
+  const n = run.pencil.n;
+  const o = run.o;
+  const t = performance.now();
+  const common = {
+    count: want,
+    shift: sigma,
+    seed: run.seed + run.rounds,
+    ...(pool.m > 0 ? { locked: pool.x, lockedCount: pool.m } : {}),
+    ...(o.onProgress ? { onProgress: o.onProgress } : {}),
+    ...(o.signal ? { signal: o.signal } : {}),
+    ...(o.tolerance !== undefined ? { tolerance: o.tolerance } : {}),
+  };
+  let newValues: Float64Array;
+  let newX: Float64Array;
+  let newMX: Float64Array;
+  let exhausted = false;
+  let converged: boolean;
+  if (run.method === 'lanczos') {
+    const r = lanczos(inv, run.mop, common);
+    run.iterations += r.steps;
+    run.restarts += r.restarts;
+    newValues = r.eigenvalues;
+    newX = r.vectors;
+    newMX = r.massVectors;
+    exhausted = r.exhausted;
+    converged = r.converged;
+  } else {
+    const r = subspaceIteration(inv, run.mop, run.kop, { ...common, normK: run.normK });
+    run.iterations += r.iterations;
+    newValues = r.eigenvalues;
+    newX = r.vectors;
+    newMX = r.massVectors;
+    converged = r.converged;
+  }
+  run.iterationMs += performance.now() - t;
+  if (!converged && !exhausted) {
+    throw new VerificationError(
+      `the ${run.method} iteration did not converge for all ${want} wanted mode(s) near σ = ${sigma} rad²/s² (${newValues.length} converged); try the other method, another shift or a larger tolerance`,
+      `modes[${pool.m + newValues.length}]`,
+    );
+  }
+  // ---- merge and Rayleigh–Ritz over the pool ----
+  const tr = performance.now();
+  const m0 = pool.m;
+  const p = newValues.length;
+  const m = m0 + p;
+  if (p === 0) return exhausted;
+  const x = new Float64Array(n * m);
+  const mx = new Float64Array(n * m);
+  x.set(pool.x.subarray(0, n * m0));
+  mx.set(pool.mx.subarray(0, n * m0));
+  x.set(newX.subarray(0, n * p), n * m0);
+  mx.set(newMX.subarray(0, n * p), n * m0);
+  const kx = new Float64Array(n * m);
+  run.kop.applyMany(x, kx, m);
+  pool.values = rayleighRitz(x, kx, mx, n, m, new Float64Array(256 * m));
+  pool.x = x;
+  pool.mx = mx;
+  pool.m = m;
+  run.verifyMs += performance.now() - tr;
+  return exhausted;
+}
+
+function emptyPool(): Pool {
+  return { m: 0, values: new Float64Array(0), x: new Float64Array(0), mx: new Float64Array(0) };
+}
+
+function operatorsAt(run: Run, sigma: number, direction: 1 | -1, attempts?: number): { inv: BlockOperator; shift: number; negative: number } {
+  run.o.onProgress?.('factorize', 0);
+  const f = run.pencil.factorAt(sigma, direction, attempts);
+  run.o.onProgress?.('factorize', 1);
+  const inv = inverseOperator(f.factor);
+  const counted: BlockOperator = {
+    n: inv.n,
+    applications: 0,
+    apply(a, b) {
+      inv.apply(a, b);
+      counted.applications++;
+      run.applications++;
+    },
+    applyMany(a, b, k) {
+      inv.applyMany(a, b, k);
+      counted.applications += k;
+      run.applications += k;
+    },
+  };
+  return { inv: counted, shift: f.shift, negative: f.factor.negativePivots };
+}
+
+/** Runs a Sturm check, booking its time (factorizations included) to the verify phase. */
+function timedSturm(run: Run, check: () => SturmCheck): SturmCheck {
+  const t = performance.now();
+  const f0 = run.pencil.msFactorize;
+  const r = check();
+  run.sturmFactorizeMs += run.pencil.msFactorize - f0;
+  run.verifyMs += performance.now() - t;
+  return r;
+}
+
+/** Lowest `count` modes from a shift at or below the bottom of the spectrum. */
+function solveLowest(run: Run, count: number): Found {
+  const { pencil, o } = run;
+  let op: { inv: BlockOperator; shift: number; negative: number } | undefined;
+  if (o.shift !== undefined) op = operatorsAt(run, o.shift, -1);
+  else {
+    // σ = 0 when K is positive definite (zero negative pivots, no vanishing pivot) …
+    try {
+      op = operatorsAt(run, 0, -1, 1);
+      if (op.negative > 0) op = undefined;
+    } catch {
+      op = undefined;
+    }
+    // … else a small negative shift (free-free: rigid-body modes at λ ≈ 0), moved down until no
+    // eigenvalue lies below it (Sturm count 0) or three tries are spent.
+    if (!op) {
+      let s = -FREE_SHIFT * pencil.typicalEigenvalue;
+      for (let tries = 0; tries < 3; tries++, s *= 100) {
+        op = operatorsAt(run, s, -1);
+        if (op.negative === 0) break;
+      }
+    }
+  }
+  const { inv, shift } = op!;
+  const minimumGap = shift < 0 ? 1e-3 * Math.abs(shift) : 1e-9 * pencil.typicalEigenvalue;
+  const pool = emptyPool();
+  let want = count;
+  let sturm: SturmCheck | undefined;
+  for (;;) {
+    const exhausted = extend(run, pool, inv, shift, want);
+    if (pool.m < count) {
+      if (exhausted) throw countError(count, pool.m, pencil.n);
+      want = count - pool.m;
+      run.rounds++;
+      if (run.rounds > MAX_ROUNDS) break;
+      continue;
+    }
+    if (!o.verify) break;
+    sturm = timedSturm(run, () => sturmCheck(pencil, pool.values, count, 0, { minimumGap }));
+    if (sturm.passed) break;
+    const inside = sturm.returnedBelow + (sturm.extraBelow ?? 0);
+    const missing = sturm.countBelow - inside;
+    if (missing < 0 || exhausted || run.rounds >= MAX_ROUNDS) break; // assertAccepted reports it
+    run.rounds++;
+    want = missing;
+  }
+  return { values: pool.values.slice(0, count), vectors: pool.x.slice(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+}
+
+/** The `count` modes nearest a target. */
+function solveNear(run: Run, target: number, count: number): Found {
+  const { pencil, o } = run;
+  const { inv, shift } = operatorsAt(run, o.shift ?? target, 1);
+  const pool = emptyPool();
+  let want = count;
+  let sturm: SturmCheck | undefined;
+  let first = 0;
+  for (;;) {
+    const exhausted = extend(run, pool, inv, shift, want);
+    if (pool.m < count) {
+      if (exhausted) throw countError(count, pool.m, pencil.n);
+      want = count - pool.m;
+      run.rounds++;
+      if (run.rounds > MAX_ROUNDS) break;
+      continue;
+    }
+    [first] = nearestBlock(pool.values, target, count);
+    if (!o.verify) break;
+    sturm = timedSturm(run, () => sturmCheck(pencil, pool.values, count, first, { window: true, minimumGap: 1e-9 * pencil.typicalEigenvalue }));
+    if (sturm.passed) break;
+    const inside = sturm.returnedBelow + (sturm.extraBelow ?? 0);
+    const missing = sturm.countBelow - (sturm.countBelowLower ?? 0) - inside;
+    if (missing < 0 || exhausted || run.rounds >= MAX_ROUNDS) break;
+    run.rounds++;
+    want = missing;
+  }
+  const n = pencil.n;
+  return { values: pool.values.slice(first, first + count), vectors: pool.x.slice(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+}
+
+/** Sturm counts at both ends of a range, as a SturmCheck of `found` modes. */
+function rangeCheck(pencil: ShiftedPencil, range: readonly [number, number], found: number): SturmCheck {
+  const lower = pencil.factorAt(range[0], -1);
+  const upper = pencil.factorAt(range[1], 1);
+  const inWindow = upper.factor.negativePivots - lower.factor.negativePivots;
+  return {
+    shift: upper.shift,
+    countBelow: upper.factor.negativePivots,
+    lowerShift: lower.shift,
+    countBelowLower: lower.factor.negativePivots,
+    returnedBelow: found,
+    passed: inWindow === found,
+  };
+}
+
+/** Every mode in [a, b]: Sturm counts fix the number; windows of more than RANGE_BLOCK modes are split. */
+function solveRange(run: Run, range: readonly [number, number]): Found {
+  const { pencil } = run;
+  const n = pencil.n;
+  const lower = pencil.factorAt(range[0], -1);
+  const upper = pencil.factorAt(range[1], 1);
+  const parts: Array<{ values: Float64Array; vectors: Float64Array }> = [];
+  let lastShift = NaN;
+  // Windows [a, b) with their Sturm counts; processed lowest first (a stack, upper half pushed first).
+  const stack: Array<[number, number, number, number]> = [[lower.shift, lower.factor.negativePivots, upper.shift, upper.factor.negativePivots]];
+  while (stack.length > 0) {
+    const [a, ca, b, cb] = stack.pop()!;
+    const k = cb - ca;
+    if (k === 0) continue;
+    if (k > RANGE_BLOCK) {
+      const mid = pencil.factorAt(0.5 * (a + b), 1);
+      const cm = mid.factor.negativePivots;
+      if (mid.shift > a && mid.shift < b && cm > ca && cm < cb) {
+        stack.push([mid.shift, cm, b, cb]);
+        stack.push([a, ca, mid.shift, cm]);
+        continue;
+      }
+    }
+    const center = run.o.shift !== undefined && run.o.shift > a && run.o.shift < b ? run.o.shift : 0.5 * (a + b);
+    const { inv, shift } = operatorsAt(run, center, 1);
+    lastShift = shift;
+    const pool = emptyPool();
+    let want = k;
+    let inside = 0;
+    let from = 0;
+    for (;;) {
+      const exhausted = extend(run, pool, inv, shift, want);
+      from = 0;
+      while (from < pool.m && pool.values[from] < a) from++;
+      let to = from;
+      while (to < pool.m && pool.values[to] < b) to++;
+      inside = to - from;
+      if (inside >= k || exhausted || run.rounds >= MAX_ROUNDS) break;
+      run.rounds++;
+      want = k - inside;
+    }
+    if (inside !== k && run.o.verify) {
+      throw new VerificationError(
+        `the Sturm counts find ${k} eigenvalue(s) in [${a}, ${b}) rad²/s² but the ${run.method} iteration found ${inside}; try another seed or method`,
+        `modes[${parts.reduce((s, p2) => s + p2.values.length, 0) + Math.min(inside, k - 1)}]`,
+      );
+    }
+    const take = Math.min(inside, k);
+    parts.push({ values: pool.values.slice(from, from + take), vectors: pool.x.slice(from * n, (from + take) * n) });
+  }
+  const total = parts.reduce((s, p) => s + p.values.length, 0);
+  const values = new Float64Array(total);
+  const vectors = new Float64Array(total * n);
+  let c = 0;
+  for (const p of parts) {
+    values.set(p.values, c);
+    vectors.set(p.vectors, c * n);
+    c += p.values.length;
+  }
+  const sturm: SturmCheck = {
+    shift: upper.shift,
+    countBelow: upper.factor.negativePivots,
+    lowerShift: lower.shift,
+    countBelowLower: lower.factor.negativePivots,
+    returnedBelow: total,
+    passed: upper.factor.negativePivots - lower.factor.negativePivots === total,
+  };
+  return { values, vectors, sturm, shiftUsed: lastShift };
+}

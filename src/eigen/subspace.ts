@@ -1,0 +1,195 @@
+/**
+ * Shift-invert subspace iteration with Rayleigh–Ritz (Bathe, Finite Element Procedures, 1996,
+ * §11.6; Bathe & Wilson 1972): iterate q = max(2p, p + 8) vectors with
+ * X̄ = (K − σM)⁻¹ M X, project K − σM and M onto X̄, solve the q × q problem densely, rotate.
+ * Vector i converges at the rate |λᵢ − σ| / |λ_{q+1} − σ| (Bathe §11.6.2).
+ *
+ * Workspaces (X, X̄, M·X) are column-major n × q Float64Arrays sized once.
+ */
+import { AbortedError, ArgumentError } from '../errors';
+import type { Operator } from '../linalg/operator';
+import { dotColumns, gram, combineColumnsInPlace, SeededRandom, subtractColumns } from './kernels';
+import type { BlockOperator } from './operators';
+import type { ProgressCallback } from './lanczos';
+import { projectedEigen } from './ritz';
+import { matrixNorm1 } from './verify';
+
+export interface SubspaceOptions {
+  /** Eigenpairs wanted (p): those nearest the shift σ. @defaultValue 20 */
+  count?: number;
+  /** Shift σ (rad²/s²) of the factor behind `inverse`. @defaultValue 0 */
+  shift?: number;
+  /** Iteration vectors q; `0` picks max(2p, p + 8) (Bathe §11.6.3), capped by the dimension. @defaultValue 0 */
+  subspaceSize?: number;
+  /** A pair is converged when ‖Kx − λMx‖ / (normK ‖x‖) ≤ tolerance. @defaultValue 1e-11 */
+  tolerance?: number;
+  /** ‖K‖₁ used in the residual test; `0` estimates it from the stiffness operator (verify.ts `matrixNorm1`, Hager's estimate). @defaultValue 0 */
+  normK?: number;
+  /** Iteration limit. @defaultValue 300 */
+  maxIterations?: number;
+  /** Seed of the start vectors. @defaultValue 1 */
+  seed?: number;
+  /** Known eigenvectors to stay M-orthogonal to, column-major n × lockedCount. @defaultValue none */
+  locked?: Float64Array;
+  /** Columns in `locked`. @defaultValue 0 */
+  lockedCount?: number;
+  /** Called after each iteration with ('subspace', converged / count). */
+  onProgress?: ProgressCallback;
+  /** Checked every iteration; when aborted, AbortedError is thrown. */
+  signal?: AbortSignal;
+}
+
+/** Defaults of {@link SubspaceOptions}. */
+export const SUBSPACE_DEFAULTS = {
+  count: 20,
+  shift: 0,
+  subspaceSize: 0,
+  tolerance: 1e-11,
+  normK: 0,
+  maxIterations: 300,
+  seed: 1,
+  lockedCount: 0,
+} as const;
+
+export interface SubspaceResult {
+  /** Converged eigenvalues nearest σ, ascending, rad²/s², length m. */
+  readonly eigenvalues: Float64Array;
+  /** Their vectors, column-major n × m, M-orthonormal. */
+  readonly vectors: Float64Array;
+  /** M times the vectors, column-major n × m. */
+  readonly massVectors: Float64Array;
+  /** Relative residual of each returned pair as measured in the last iteration. */
+  readonly residuals: Float64Array;
+  /** True when all `count` wanted pairs converged (or stagnated at round-off within 100 × tolerance). */
+  readonly converged: boolean;
+  /** Iterations done. */
+  readonly iterations: number;
+}
+
+/**
+ * Shift-invert subspace iteration: the `count` eigenpairs of K x = λ M x nearest σ.
+ * @param inverse - Y ← (K − σM)⁻¹ X, n × n, with a block form
+ * @param mass - Y ← M X, n × n symmetric positive semidefinite, with a block form
+ * @param stiffness - y ← K x, n × n symmetric (for the residual test)
+ * @param options - see {@link SubspaceOptions}; defaults in {@link SUBSPACE_DEFAULTS}
+ * @throws ArgumentError on invalid options, AbortedError when aborted, VerificationError (path
+ *   `projection`) if the iteration vectors lose M-independence
+ */
+export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, stiffness: Operator, options: SubspaceOptions = {}): SubspaceResult {
+  const o = { ...SUBSPACE_DEFAULTS, ...options };
+  const n = inverse.n;
+  if (mass.n !== n || stiffness.n !== n) throw new ArgumentError(`operators have sizes ${n}, ${mass.n}, ${stiffness.n}; pass operators of one size`, 'mass');
+  if (!Number.isInteger(o.count) || o.count < 1) throw new ArgumentError(`count ${o.count} is not a positive integer; ask for at least one mode`, 'count');
+  if (!(o.tolerance > 0 && o.tolerance < 1)) throw new ArgumentError(`tolerance ${o.tolerance} is outside (0, 1); use e.g. 1e-11`, 'tolerance');
+  const L = o.lockedCount;
+  if (!Number.isInteger(L) || L < 0 || L >= n) throw new ArgumentError(`lockedCount ${L} must be an integer in [0, ${n - 1}]`, 'lockedCount');
+  if (L > 0 && (!o.locked || o.locked.length < L * n)) throw new ArgumentError(`locked holds fewer than n · lockedCount = ${n * L} values; pass the locked vectors`, 'locked');
+  const avail = n - L;
+  const p = Math.min(o.count, avail);
+  const q = Math.min(o.subspaceSize > 0 ? Math.max(o.subspaceSize, p) : Math.max(2 * p, p + 8), avail);
+  const sigma = o.shift;
+  const normK = o.normK > 0 ? o.normK : matrixNorm1(stiffness);
+
+  // ---- workspace ----
+  const X = new Float64Array(n * q);
+  const MX = new Float64Array(n * q);
+  const Xb = new Float64Array(n * q);
+  const A = new Float64Array(q * q);
+  const B = new Float64Array(q * q);
+  const h = new Float64Array(Math.max(L, 1));
+  const tmp = new Float64Array(256 * q);
+  const kx = new Float64Array(n);
+  const lockedM = new Float64Array(n * L);
+  if (L > 0) mass.applyMany(o.locked!, lockedM, L);
+  const rng = new SeededRandom(o.seed);
+  rng.fill(X);
+  const omega = new Float64Array(q);
+  const res = new Float64Array(q);
+  const best = new Float64Array(p).fill(Infinity);
+  let stale = 0;
+  let stagnated = false;
+  let iterations = 0;
+  let nconv = 0;
+
+  const deflate = (y: Float64Array): void => {
+    if (L === 0) return;
+    for (let c = 0; c < q; c++) {
+      const v = y.subarray(c * n, (c + 1) * n);
+      for (let pass = 0; pass < 2; pass++) {
+        dotColumns(lockedM, n, 0, L, v, h);
+        subtractColumns(o.locked!, n, 0, L, h, v);
+      }
+    }
+  };
+
+  mass.applyMany(X, MX, q);
+  let order: number[] = [];
+  while (iterations < o.maxIterations) {
+    if (o.signal?.aborted) throw new AbortedError('the eigen solve was aborted through its AbortSignal; run it again without aborting to get the modes', 'signal');
+    iterations++;
+    // X̄ = (K − σM)⁻¹ M X  (Bathe eq. 11.107)
+    inverse.applyMany(MX, Xb, q);
+    deflate(Xb);
+    // Projections: (K − σM) onto X̄ is X̄ᵀ M X (since (K − σM) X̄ = M X), M onto X̄ is X̄ᵀ M X̄ (eq. 11.108–11.109).
+    gram(Xb, MX, n, q, q, A);
+    mass.applyMany(Xb, MX, q);
+    gram(Xb, MX, n, q, q, B);
+    const { values, vectors } = projectedEigen(A, B, q);
+    // Rotate: X = X̄ Q, M X = (M X̄) Q (eq. 11.111).
+    X.set(Xb);
+    combineColumnsInPlace(X, n, 0, q, vectors, q, q, tmp);
+    combineColumnsInPlace(MX, n, 0, q, vectors, q, q, tmp);
+    for (let c = 0; c < q; c++) omega[c] = values[c];
+    // Wanted first: |λ − σ| smallest.
+    order = Array.from({ length: q }, (_, i) => i).sort((a, b) => Math.abs(omega[a]) - Math.abs(omega[b]) || a - b);
+    // Residuals of the p wanted pairs: ‖K x − λ M x‖ / (‖K‖ ‖x‖).
+    nconv = 0;
+    for (let r = 0; r < p; r++) {
+      const c = order[r];
+      const x = X.subarray(c * n, (c + 1) * n);
+      const mx = MX.subarray(c * n, (c + 1) * n);
+      stiffness.apply(x, kx);
+      const lam = sigma + omega[c];
+      let r2 = 0;
+      let x2 = 0;
+      for (let i = 0; i < n; i++) {
+        const e = kx[i] - lam * mx[i];
+        r2 += e * e;
+        x2 += x[i] * x[i];
+      }
+      res[c] = Math.sqrt(r2) / (normK * Math.sqrt(x2) || 1);
+      if (res[c] <= o.tolerance) nconv++;
+    }
+    o.onProgress?.('subspace', nconv / p);
+    if (nconv === p) break;
+    // Stagnation at round-off: no wanted residual improved by 10 % for 10 iterations while all
+    // are within 100× the tolerance; further iterations cannot improve them.
+    let improved = false;
+    let within = true;
+    for (let r = 0; r < p; r++) {
+      const c = order[r];
+      if (!(res[c] >= 0.9 * best[r])) improved = true;
+      if (res[c] < best[r]) best[r] = res[c];
+      if (res[c] > 100 * o.tolerance) within = false;
+    }
+    stale = improved ? 0 : stale + 1;
+    if (within && stale >= 10) {
+      stagnated = true;
+      break;
+    }
+  }
+
+  const sel = order.slice(0, p).sort((a, b) => omega[a] - omega[b] || a - b);
+  const eigenvalues = new Float64Array(p);
+  const residuals = new Float64Array(p);
+  const vectors = new Float64Array(n * p);
+  const massVectors = new Float64Array(n * p);
+  for (let c = 0; c < p; c++) {
+    const s = sel[c];
+    eigenvalues[c] = sigma + omega[s];
+    residuals[c] = res[s];
+    vectors.set(X.subarray(s * n, (s + 1) * n), c * n);
+    massVectors.set(MX.subarray(s * n, (s + 1) * n), c * n);
+  }
+  return { eigenvalues, vectors, massVectors, residuals, converged: nconv === p || stagnated, iterations };
+}

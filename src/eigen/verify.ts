@@ -1,0 +1,219 @@
+/**
+ * Checks shared by every eigensolver: relative residuals, M-orthonormality, mass
+ * normalisation and the 1-norm of K. Operands may be a SymmetricCsc, an Operator, an ml-matrix
+ * Matrix or a flat row-major `{ n, data }`. Mode shapes are column-major n × m Float64Arrays.
+ */
+import { AbstractMatrix } from 'ml-matrix';
+import { ArgumentError, VerificationError } from '../errors';
+import type { Operator } from '../linalg/operator';
+import { symmetricMultiply, type SymmetricCsc } from '../linalg/sparse/symmetric';
+import type { DenseSymmetric } from './dense/input';
+
+/** A symmetric matrix in any form the checks accept. */
+export type SymmetricOperand = SymmetricCsc | Operator | DenseSymmetric | AbstractMatrix;
+
+function isCsc(a: SymmetricOperand): a is SymmetricCsc {
+  return (a as SymmetricCsc).colPtr instanceof Int32Array;
+}
+function isDense(a: SymmetricOperand): a is DenseSymmetric {
+  return (a as DenseSymmetric).data instanceof Float64Array && !isCsc(a);
+}
+
+function flatOf(a: AbstractMatrix): DenseSymmetric {
+  if (a.rows !== a.columns) throw new ArgumentError(`matrix is ${a.rows} × ${a.columns}; pass a square matrix`, 'matrix');
+  const n = a.rows;
+  const data = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) data[i * n + j] = a.get(i, j);
+  return { n, data };
+}
+
+/** Wraps any operand as an Operator (y ← A x), converting ml-matrix once. */
+export function asOperator(a: SymmetricOperand): Operator {
+  if (isCsc(a)) return { n: a.n, apply: (x, y) => symmetricMultiply(a, x, y) };
+  if (AbstractMatrix.isMatrix(a)) return asOperator(flatOf(a));
+  if (isDense(a)) {
+    const { n, data } = a;
+    return {
+      n,
+      apply(x, y) {
+        for (let i = 0; i < n; i++) {
+          const r = i * n;
+          let s = 0;
+          for (let j = 0; j < n; j++) s += data[r + j] * x[j];
+          y[i] = s;
+        }
+      },
+    };
+  }
+  if (typeof (a as Operator).apply === 'function' && Number.isInteger((a as Operator).n)) return a as Operator;
+  throw new ArgumentError('is not a SymmetricCsc, Operator, ml-matrix Matrix or { n, data }; pass one of these', 'matrix');
+}
+
+/**
+ * 1-norm of a symmetric matrix (= its ∞-norm): max over columns of Σᵢ |aᵢⱼ|.
+ * Exact for SymmetricCsc (one pass over the stored lower triangle), dense and ml-matrix inputs;
+ * for a bare Operator, Hager's estimate (Hager, SIAM J. Sci. Stat. Comput. 5, 1984; as given by
+ * Higham, ACM TOMS 14, 1988, with Aᵀ = A), a lower bound that is
+ * usually exact or within a small factor.
+ * @returns ‖A‖₁ in A's units
+ */
+export function matrixNorm1(a: SymmetricOperand): number {
+  if (isCsc(a)) {
+    const col = new Float64Array(a.n);
+    for (let j = 0; j < a.n; j++) {
+      for (let p = a.colPtr[j]; p < a.colPtr[j + 1]; p++) {
+        const i = a.rowIdx[p];
+        const v = Math.abs(a.values[p]);
+        col[j] += v;
+        if (i !== j) col[i] += v;
+      }
+    }
+    let m = 0;
+    for (let j = 0; j < a.n; j++) if (col[j] > m) m = col[j];
+    return m;
+  }
+  if (AbstractMatrix.isMatrix(a)) return matrixNorm1(flatOf(a));
+  if (isDense(a)) {
+    const { n, data } = a;
+    const col = new Float64Array(n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) col[j] += Math.abs(data[i * n + j]);
+    let m = 0;
+    for (let j = 0; j < n; j++) if (col[j] > m) m = col[j];
+    return m;
+  }
+  // ---- Hager's estimator on an Operator ----
+  const op = asOperator(a);
+  const n = op.n;
+  if (n === 0) return 0;
+  const x = new Float64Array(n).fill(1 / n);
+  const y = new Float64Array(n);
+  const xi = new Float64Array(n);
+  const z = new Float64Array(n);
+  let est = 0;
+  for (let iter = 0; iter < 5; iter++) {
+    op.apply(x, y);
+    est = 0;
+    for (let i = 0; i < n; i++) {
+      est += Math.abs(y[i]);
+      xi[i] = y[i] >= 0 ? 1 : -1; // ξ = sign(y)
+    }
+    op.apply(xi, z); // z = Aᵀ ξ = A ξ
+    let jMax = 0;
+    let zx = 0;
+    for (let i = 0; i < n; i++) {
+      if (Math.abs(z[i]) > Math.abs(z[jMax])) jMax = i;
+      zx += z[i] * x[i];
+    }
+    if (Math.abs(z[jMax]) <= zx) break; // Hager's stopping test: x is a local maximum of ‖A x‖₁
+    x.fill(0);
+    x[jMax] = 1;
+  }
+  return est;
+}
+
+function checkModes(n: number, vectors: Float64Array, m: number, name: string): void {
+  if (!Number.isInteger(m) || m < 0 || vectors.length < n * m) {
+    throw new ArgumentError(`${m} modes of length ${n} need ${n * m} entries but vectors has ${vectors.length}; pass column-major n × m mode shapes`, name);
+  }
+}
+
+/**
+ * Relative residual of each eigenpair: ‖K x − λ M x‖₂ / (‖K‖₁ ‖x‖₂).
+ * @param K - stiffness, n × n symmetric
+ * @param M - mass, n × n symmetric
+ * @param values - eigenvalues λ (rad²/s²), length m
+ * @param vectors - mode shapes, column-major n × m
+ * @param normK - ‖K‖₁; computed by {@link matrixNorm1} when omitted
+ * @returns length m, dimensionless; 0 for a zero mode or a zero K with zero residual
+ * @throws ArgumentError when the sizes disagree
+ */
+export function residuals(K: SymmetricOperand, M: SymmetricOperand, values: Float64Array, vectors: Float64Array, normK?: number): Float64Array {
+  const kop = asOperator(K);
+  const mop = asOperator(M);
+  const n = kop.n;
+  if (mop.n !== n) throw new ArgumentError(`M has dimension ${mop.n} but K has ${n}; pass matrices of one size`, 'M');
+  const m = values.length;
+  checkModes(n, vectors, m, 'vectors');
+  const nk = normK ?? matrixNorm1(K);
+  const x = new Float64Array(n);
+  const kx = new Float64Array(n);
+  const mx = new Float64Array(n);
+  const out = new Float64Array(m);
+  for (let j = 0; j < m; j++) {
+    for (let i = 0, o = j * n; i < n; i++) x[i] = vectors[o + i];
+    kop.apply(x, kx);
+    mop.apply(x, mx);
+    const lam = values[j];
+    let r2 = 0;
+    let x2 = 0;
+    for (let i = 0; i < n; i++) {
+      const r = kx[i] - lam * mx[i];
+      r2 += r * r;
+      x2 += x[i] * x[i];
+    }
+    const den = nk * Math.sqrt(x2);
+    out[j] = den > 0 ? Math.sqrt(r2) / den : Math.sqrt(r2);
+  }
+  return out;
+}
+
+/**
+ * Largest entry of |Φᵀ M Φ − I| over the first m modes.
+ * @param M - mass, n × n symmetric
+ * @param vectors - mode shapes, column-major n × m
+ * @param m - number of modes
+ * @returns dimensionless (0 for exactly M-orthonormal modes)
+ */
+export function orthogonalityError(M: SymmetricOperand, vectors: Float64Array, m: number): number {
+  const op = asOperator(M);
+  const n = op.n;
+  checkModes(n, vectors, m, 'vectors');
+  const x = new Float64Array(n);
+  const w = new Float64Array(n);
+  let worst = 0;
+  for (let j = 0; j < m; j++) {
+    for (let i = 0, o = j * n; i < n; i++) x[i] = vectors[o + i];
+    op.apply(x, w);
+    for (let i = 0; i <= j; i++) {
+      const off = i * n;
+      let s = 0;
+      for (let p = 0; p < n; p++) s += vectors[off + p] * w[p];
+      const e = Math.abs(i === j ? s - 1 : s);
+      if (e > worst || Number.isNaN(e)) worst = Number.isNaN(e) ? Infinity : e;
+    }
+  }
+  return worst;
+}
+
+/**
+ * Scales each mode in place to unit modal mass, φᵀ M φ = 1.
+ * @param M - mass, n × n symmetric positive semidefinite
+ * @param vectors - mode shapes, column-major n × m (m = vectors.length / n), modified in place
+ * @returns the modal masses φᵀ M φ before scaling, length m (kg for displacement DOFs)
+ * @throws VerificationError (path `modes[j]`) when a modal mass is not positive and finite
+ */
+export function massNormalise(M: SymmetricOperand, vectors: Float64Array): Float64Array {
+  const op = asOperator(M);
+  const n = op.n;
+  if (n === 0 || vectors.length % n !== 0) {
+    throw new ArgumentError(`vectors has ${vectors.length} entries, not a multiple of n = ${n}; pass column-major n × m mode shapes`, 'vectors');
+  }
+  const m = vectors.length / n;
+  const x = new Float64Array(n);
+  const w = new Float64Array(n);
+  const masses = new Float64Array(m);
+  for (let j = 0; j < m; j++) {
+    const o = j * n;
+    for (let p = 0; p < n; p++) x[p] = vectors[o + p];
+    op.apply(x, w);
+    let s = 0;
+    for (let p = 0; p < n; p++) s += x[p] * w[p];
+    if (!(s > 0) || !Number.isFinite(s)) {
+      throw new VerificationError(`modal mass φᵀMφ is ${s}; a mode must have positive finite modal mass (is the mode zero on every massive DOF?)`, `modes[${j}]`);
+    }
+    masses[j] = s;
+    const f = 1 / Math.sqrt(s);
+    for (let p = 0; p < n; p++) vectors[o + p] *= f;
+  }
+  return masses;
+}

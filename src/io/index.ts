@@ -1,0 +1,5 @@
+/** Matrix Market exchange and reports (text and JSON); strings in, strings out. */
+export { readMatrixMarket, writeMatrixMarket, writeDofMap, READ_MATRIX_MARKET_DEFAULTS, DOF_MAP_DEFAULTS, type ReadMatrixMarketOptions, type DofMapOptions, type DofMapFormat } from './matrix-market';
+export { formatModesText, formatMatrixModesText } from './report-text';
+export { modesJsonObject, matrixModesJsonObject, verificationObject, type JsonReportOptions } from './report-json';
+export { ENGINEERING_CAUTION } from './caution';

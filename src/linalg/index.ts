@@ -1,0 +1,12 @@
+/** Sparse symmetric storage, orderings and the supernodal LDLᵀ with inertia. */
+export type { Operator } from './operator';
+export {
+  CooBuilder, symmetricMultiply, nnz, diagonal, toDenseArray, fromDenseArray, unionPattern, combineOnUnion,
+  type SymmetricCsc, type UnionPattern,
+} from './sparse/symmetric';
+export type { OrderingName, AnalyseOptions, SymbolicFactor, FactorizeOptions, LdltFactor } from './ldlt/types';
+export { analyse, ANALYSE_DEFAULTS } from './ldlt/analyse';
+export { factorize, FACTORIZE_DEFAULTS } from './ldlt/factorize';
+export { solveStatic } from './ldlt/static';
+export { order, amd, rcm, nestedDissection, type OrderingMethod } from './ordering/index';
+export { symbolicFill } from './ordering/fill';

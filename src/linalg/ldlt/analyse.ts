@@ -1,0 +1,474 @@
+import { ArgumentError } from '../../errors';
+import { order } from '../ordering';
+import type { SymmetricCsc } from '../sparse/symmetric';
+import type { AnalyseOptions, OrderingName, SymbolicFactor } from './types';
+
+/** Defaults of {@link AnalyseOptions}. */
+export const ANALYSE_DEFAULTS = { ordering: 'auto' } as const;
+
+/** Orderings that `ordering: 'auto'` compares by their measured fill (flops of the factor). */
+export const AUTO_CANDIDATES = ['nd', 'amd', 'rcm', 'natural'] as const;
+
+/**
+ * Relaxed supernode amalgamation (Ashcraft & Grimes 1989): a child supernode is merged into
+ * its parent when the merged supernode has at most `cols[t]` columns and a fraction of explicit
+ * zeros below `zeros[t]` for some t, or any size with a fraction below `zerosAny`. The
+ * thresholds are those of CHOLMOD's supernodal analysis defaults (from memory).
+ */
+const RELAX = { always: 4, cols: [16, 48], zeros: [0.8, 0.1], zerosAny: 0.05 } as const;
+
+/**
+ * Internal result of the symbolic phase of the supernodal LDLᵀ. Supernode s owns the
+ * consecutive columns superStart[s] .. superStart[s+1]−1 of L (permuted numbering) and the
+ * rows rows[rowPtr[s] .. rowPtr[s+1]) (its own columns first, then the rows below, ascending).
+ * Its numeric block is dense row-major, nrows × ncols, at lx[lxPtr[s] ..).
+ */
+export interface SupernodalSymbolic extends SymbolicFactor {
+  readonly kind: 'supernodal';
+  /** pinv[i] = position at which original index i is eliminated (inverse of perm). */
+  readonly pinv: Int32Array;
+  /** First column of each supernode, length supernodes + 1 (last = n). */
+  readonly superStart: Int32Array;
+  /** Supernode of each (permuted) column, length n. */
+  readonly superOf: Int32Array;
+  /** Row-structure pointers, length supernodes + 1. */
+  readonly rowPtr: Int32Array;
+  /** Row structures (permuted indices), concatenated. */
+  readonly rows: Int32Array;
+  /** Offsets of the dense blocks in the factor's value array, length supernodes + 1. */
+  readonly lxPtr: Float64Array;
+  /** lxPos[p] = where the p-th value of the input pattern goes in the factor's value array. */
+  readonly lxPos: Int32Array;
+  /** diagPos[j] = position of A_jj (original numbering) in the input values, −1 if not stored. */
+  readonly diagPos: Int32Array;
+  /** Largest supernode width, height, and block size (entries), for workspaces. */
+  readonly maxCols: number;
+  readonly maxRows: number;
+  readonly maxBlock: number;
+}
+
+/** Checks that `pattern` is a well-formed lower-stored SymmetricCsc; throws ArgumentError. */
+export function checkPattern(pattern: SymmetricCsc): void {
+  const { n, colPtr, rowIdx } = pattern;
+  if (!Number.isInteger(n) || n < 0) throw new ArgumentError(`dimension ${n} is not a non-negative integer; pass the matrix size`, 'pattern.n');
+  if (colPtr.length !== n + 1) throw new ArgumentError(`colPtr has length ${colPtr.length}, expected n + 1 = ${n + 1}; build the matrix with CooBuilder.toCsc`, 'pattern.colPtr');
+  if (colPtr[0] !== 0 || colPtr[n] > rowIdx.length) throw new ArgumentError(`colPtr runs from ${colPtr[0]} to ${colPtr[n]} but rowIdx has ${rowIdx.length} entries; colPtr must start at 0 and end at nnz`, 'pattern.colPtr');
+  for (let j = 0; j < n; j++) {
+    const a = colPtr[j];
+    const b = colPtr[j + 1];
+    if (b < a) throw new ArgumentError(`colPtr decreases at column ${j} (${a} then ${b}); column pointers must be non-decreasing`, `pattern.colPtr[${j + 1}]`);
+    let last = j - 1;
+    for (let p = a; p < b; p++) {
+      const i = rowIdx[p];
+      if (!(i > last) || i >= n) {
+        throw new ArgumentError(
+          `row index ${i} in column ${j} is ${i >= n ? `outside 0..${n - 1}` : i < j ? 'above the diagonal (only the lower triangle is stored)' : 'out of ascending order or repeated'}; store rows j..n−1 of each column ascending, once each`,
+          `pattern.rowIdx[${p}]`,
+        );
+      }
+      last = i;
+    }
+  }
+}
+
+function checkPermutation(perm: Int32Array, n: number): void {
+  if (perm.length !== n) throw new ArgumentError(`permutation has length ${perm.length}, expected ${n}; pass one entry per row`, 'options.ordering');
+  const seen = new Uint8Array(n);
+  for (let k = 0; k < n; k++) {
+    const i = perm[k];
+    if (!(i >= 0 && i < n) || seen[i]) {
+      throw new ArgumentError(`entry ${k} (${i}) is ${i >= 0 && i < n ? 'repeated' : `outside 0..${n - 1}`}; pass a permutation of 0..${n - 1}`, `options.ordering[${k}]`);
+    }
+    seen[i] = 1;
+  }
+}
+
+/**
+ * The permuted matrix C = P A Pᵀ in two forms: upper triangle by columns (uPtr/uIdx, rows ≤
+ * column, unsorted) and lower triangle by columns (lPtr/lIdx, rows ≥ column, ascending), with
+ * lOrig[q] = position in the input of the q-th lower entry. Two counting passes, as in a
+ * transpose (Davis 2006 §2.5).
+ */
+function permuteLower(pattern: SymmetricCsc, pinv: Int32Array) {
+  const { n, colPtr, rowIdx } = pattern;
+  const nz = colPtr[n];
+  const uPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const pi = pinv[rowIdx[p]];
+      uPtr[(pi > pj ? pi : pj) + 1]++;
+    }
+  }
+  for (let k = 0; k < n; k++) uPtr[k + 1] += uPtr[k];
+  const uIdx = new Int32Array(nz);
+  const uOrig = new Int32Array(nz);
+  const next = uPtr.slice(0, n);
+  const lPtr = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const pi = pinv[rowIdx[p]];
+      const hi = pi > pj ? pi : pj;
+      const lo = pi > pj ? pj : pi;
+      const q = next[hi]++;
+      uIdx[q] = lo;
+      uOrig[q] = p;
+      lPtr[lo + 1]++;
+    }
+  }
+  for (let k = 0; k < n; k++) lPtr[k + 1] += lPtr[k];
+  const lIdx = new Int32Array(nz);
+  const lOrig = new Int32Array(nz);
+  next.set(lPtr.subarray(0, n));
+  for (let k = 0; k < n; k++) {
+    for (let q = uPtr[k]; q < uPtr[k + 1]; q++) {
+      const w = next[uIdx[q]]++;
+      lIdx[w] = k;
+      lOrig[w] = uOrig[q];
+    }
+  }
+  return { uPtr, uIdx, lPtr, lIdx, lOrig };
+}
+
+/** Elimination tree from the upper triangle by columns (Liu's algorithm; Davis 2006 §4.1 cs_etree). */
+function etree(n: number, uPtr: Int32Array, uIdx: Int32Array): Int32Array {
+  const parent = new Int32Array(n);
+  const ancestor = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    parent[k] = -1;
+    ancestor[k] = -1;
+    for (let p = uPtr[k]; p < uPtr[k + 1]; p++) {
+      let i = uIdx[p];
+      while (i !== -1 && i < k) {
+        const inext = ancestor[i];
+        ancestor[i] = k;
+        if (inext === -1) parent[i] = k;
+        i = inext;
+      }
+    }
+  }
+  return parent;
+}
+
+/** Postorder of a forest (Davis 2006 §4.3 cs_post): post[k] = k-th node in postorder. */
+function postorder(parent: Int32Array): Int32Array {
+  const n = parent.length;
+  const head = new Int32Array(n).fill(-1);
+  const next = new Int32Array(n);
+  const stack = new Int32Array(n);
+  const post = new Int32Array(n);
+  for (let j = n - 1; j >= 0; j--) {
+    const p = parent[j];
+    if (p === -1) continue;
+    next[j] = head[p];
+    head[p] = j;
+  }
+  let k = 0;
+  for (let r = 0; r < n; r++) {
+    if (parent[r] !== -1) continue;
+    let top = 0;
+    stack[0] = r;
+    while (top >= 0) {
+      const p = stack[top];
+      const i = head[p];
+      if (i === -1) {
+        top--;
+        post[k++] = p;
+      } else {
+        head[p] = next[i];
+        stack[++top] = i;
+      }
+    }
+  }
+  return post;
+}
+
+/**
+ * Column counts of L (diagonal included) from the lower triangle by columns, the etree and a
+ * postorder, in O(nnz(A)·α) time: Gilbert, Ng & Peyton (1994), "An efficient algorithm to
+ * compute row and column counts for sparse Cholesky factorization", as in Davis 2006 §4.5
+ * cs_counts (skeleton-matrix leaves, least common ancestors by path compression).
+ */
+function columnCounts(n: number, lPtr: Int32Array, lIdx: Int32Array, parent: Int32Array, post: Int32Array): Int32Array {
+  const delta = new Int32Array(n);
+  const first = new Int32Array(n).fill(-1);
+  const maxfirst = new Int32Array(n).fill(-1);
+  const prevleaf = new Int32Array(n).fill(-1);
+  const ancestor = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    let j = post[k];
+    delta[j] = first[j] === -1 ? 1 : 0; // j is a leaf of the etree
+    for (; j !== -1 && first[j] === -1; j = parent[j]) first[j] = k;
+  }
+  for (let i = 0; i < n; i++) ancestor[i] = i;
+  for (let k = 0; k < n; k++) {
+    const j = post[k];
+    if (parent[j] !== -1) delta[parent[j]]--; // j is not a root
+    for (let p = lPtr[j]; p < lPtr[j + 1]; p++) {
+      const i = lIdx[p];
+      // cs_leaf: is j a leaf of the i-th row subtree?
+      if (i <= j || first[j] <= maxfirst[i]) continue;
+      maxfirst[i] = first[j];
+      const jprev = prevleaf[i];
+      prevleaf[i] = j;
+      delta[j]++; // A(i,j) is in the skeleton matrix
+      if (jprev !== -1) {
+        // subsequent leaf: q = lca(jprev, j), with path compression
+        let q = jprev;
+        while (q !== ancestor[q]) q = ancestor[q];
+        for (let s = jprev; s !== q; ) {
+          const sp = ancestor[s];
+          ancestor[s] = q;
+          s = sp;
+        }
+        delta[q]--;
+      }
+    }
+    if (parent[j] !== -1) ancestor[j] = parent[j];
+  }
+  for (let j = 0; j < n; j++) if (parent[j] !== -1) delta[parent[j]] += delta[j];
+  return delta;
+}
+
+/** Fill of one ordering: nnz(L) strictly below the diagonal and the factorization flops. */
+function fillOf(pattern: SymmetricCsc, perm: Int32Array): { nnzL: number; flops: number } {
+  const n = pattern.n;
+  const pinv = new Int32Array(n);
+  for (let k = 0; k < n; k++) pinv[perm[k]] = k;
+  const c = permuteLower(pattern, pinv);
+  const parent = etree(n, c.uPtr, c.uIdx);
+  const cc = columnCounts(n, c.lPtr, c.lIdx, parent, postorder(parent));
+  return countsToFill(cc);
+}
+
+/** nnz(L) below the diagonal and flops Σ c(c + 2), c = off-diagonal count (c divisions, c(c+1)/2 multiply-adds ×2). */
+function countsToFill(cc: Int32Array): { nnzL: number; flops: number } {
+  let nnzL = 0;
+  let flops = 0;
+  for (let j = 0; j < cc.length; j++) {
+    const c = cc[j] - 1;
+    nnzL += c;
+    flops += c * (c + 2);
+  }
+  return { nnzL, flops };
+}
+
+/** Fill and cost of one candidate ordering, as measured by `analyse` with `ordering: 'auto'`. */
+export interface OrderingCandidate {
+  readonly ordering: string;
+  readonly nnzL: number;
+  readonly flops: number;
+}
+
+/**
+ * Symbolic phase of the sparse supernodal LDLᵀ: fill-reducing ordering, elimination tree,
+ * postorder, column counts, fundamental supernodes with relaxed amalgamation, supernode row
+ * structures, and the size of every buffer the numeric phase needs (Davis, "Direct Methods for
+ * Sparse Linear Systems", SIAM 2006, ch. 4; Ng & Peyton 1993). Depends only on the pattern, so it
+ * is done once for every shift σ of K − σM.
+ * @param pattern - symmetric n × n matrix, lower triangle in CSC (values ignored)
+ * @param options - {@link AnalyseOptions}; `ordering` defaults to 'auto': each of
+ *   {@link AUTO_CANDIDATES} is computed and the one with the fewest factorization flops is kept
+ * @throws ArgumentError when the pattern is malformed or the ordering is unknown / not a permutation
+ */
+export function analyse(pattern: SymmetricCsc, options: AnalyseOptions = {}): SymbolicFactor {
+  const opts = { ...ANALYSE_DEFAULTS, ...options };
+  checkPattern(pattern);
+  const n = pattern.n;
+  const ordering: OrderingName | Int32Array = opts.ordering;
+
+  // --- Ordering ------------------------------------------------------------------------
+  let perm0: Int32Array;
+  let name: string;
+  let candidates: OrderingCandidate[] | undefined;
+  if (ordering instanceof Int32Array) {
+    checkPermutation(ordering, n);
+    perm0 = ordering.slice();
+    name = 'given';
+  } else if (ordering === 'auto') {
+    // Choose by measured fill, not by habit: etree + column counts of each candidate.
+    candidates = [];
+    let best = Infinity;
+    perm0 = new Int32Array(0);
+    name = 'natural';
+    for (const cand of AUTO_CANDIDATES) {
+      const p = order(pattern, cand);
+      const fill = fillOf(pattern, p);
+      candidates.push({ ordering: cand, ...fill });
+      if (fill.flops < best) {
+        best = fill.flops;
+        perm0 = p;
+        name = cand;
+      }
+    }
+  } else if (ordering === 'amd' || ordering === 'nd' || ordering === 'rcm' || ordering === 'natural') {
+    perm0 = order(pattern, ordering);
+    name = ordering;
+  } else {
+    throw new ArgumentError(`unknown ordering "${String(ordering)}"; use 'auto', 'amd', 'nd', 'rcm', 'natural' or an Int32Array permutation`, 'options.ordering');
+  }
+
+  // --- Etree and postorder; renumber so that every subtree is contiguous ------------------
+  const pinv = new Int32Array(n);
+  for (let k = 0; k < n; k++) pinv[perm0[k]] = k;
+  let c = permuteLower(pattern, pinv);
+  const parent0 = etree(n, c.uPtr, c.uIdx);
+  const post = postorder(parent0);
+  const perm = new Int32Array(n);
+  for (let k = 0; k < n; k++) perm[k] = perm0[post[k]];
+  for (let k = 0; k < n; k++) pinv[perm[k]] = k;
+  c = permuteLower(pattern, pinv);
+  const parent = etree(n, c.uPtr, c.uIdx);
+  const identity = new Int32Array(n);
+  for (let k = 0; k < n; k++) identity[k] = k;
+  const cc = columnCounts(n, c.lPtr, c.lIdx, parent, identity);
+  const { nnzL, flops } = countsToFill(cc);
+
+  // --- Fundamental supernodes (Liu, Ng & Peyton 1993): j joins j−1 when j is j−1's parent,
+  // j−1 is its only child, and the column structures nest exactly. -------------------------
+  const childCount = new Int32Array(n);
+  for (let j = 0; j < n; j++) if (parent[j] !== -1) childCount[parent[j]]++;
+  const fStartList: number[] = [];
+  for (let j = 0; j < n; j++) {
+    if (j === 0 || !(parent[j - 1] === j && cc[j - 1] === cc[j] + 1 && childCount[j] === 1)) fStartList.push(j);
+  }
+  const nfs = fStartList.length;
+  fStartList.push(n);
+
+  // --- Relaxed amalgamation (Ashcraft & Grimes 1989), top-down as CHOLMOD does: merge
+  // supernode s into the group that starts at s+1 when s+1 holds the parent of s's last column.
+  // Zeros of a merged block [a, b] (a trapezoid whose rows below b are those of column b):
+  // m(m+1)/2 + m(cc[b]−1) − Σ cc[a..b], with m = b − a + 1. ------------------------------------
+  const prefix = new Float64Array(n + 1);
+  for (let j = 0; j < n; j++) prefix[j + 1] = prefix[j] + cc[j];
+  const groupEnd = new Int32Array(nfs);
+  const mergedUp = new Uint8Array(nfs);
+  if (nfs > 0) groupEnd[nfs - 1] = n - 1;
+  for (let s = nfs - 2; s >= 0; s--) {
+    const last = fStartList[s + 1] - 1;
+    groupEnd[s] = last;
+    if (parent[last] !== last + 1) continue;
+    const a = fStartList[s];
+    const b = groupEnd[s + 1];
+    const m = b - a + 1;
+    const total = (m * (m + 1)) / 2 + m * (cc[b] - 1);
+    const z = (total - (prefix[b + 1] - prefix[a])) / total;
+    if (m <= RELAX.always || (m <= RELAX.cols[0] && z < RELAX.zeros[0]) || (m <= RELAX.cols[1] && z < RELAX.zeros[1]) || z < RELAX.zerosAny) {
+      mergedUp[s] = 1;
+      groupEnd[s] = b;
+    }
+  }
+  const startList: number[] = [];
+  for (let s = 0; s < nfs; s++) if (s === 0 || !mergedUp[s - 1]) startList.push(fStartList[s]);
+  const ns = startList.length;
+  startList.push(n);
+  const superStart = Int32Array.from(startList);
+  const superOf = new Int32Array(n);
+  const rowPtr = new Int32Array(ns + 1);
+  const lxPtr = new Float64Array(ns + 1);
+  let maxCols = 0;
+  let maxRows = 0;
+  let maxBlock = 0;
+  for (let s = 0; s < ns; s++) {
+    const f = superStart[s];
+    const l = superStart[s + 1] - 1;
+    for (let j = f; j <= l; j++) superOf[j] = s;
+    const nc = l - f + 1;
+    const nr = nc + cc[l] - 1;
+    rowPtr[s + 1] = rowPtr[s] + nr;
+    lxPtr[s + 1] = lxPtr[s] + nr * nc;
+    if (nc > maxCols) maxCols = nc;
+    if (nr > maxRows) maxRows = nr;
+    if (nr * nc > maxBlock) maxBlock = nr * nc;
+  }
+  if (lxPtr[ns] > 0x7fffffff) {
+    throw new ArgumentError(`the factor would hold ${lxPtr[ns]} entries, more than 2³¹ − 1; use a fill-reducing ordering ('nd' or 'amd') or a smaller model`, 'pattern');
+  }
+
+  // --- Row structure of each supernode: its own columns, then the union of the entries of C
+  // below its last column l and of its children's rows below l (Davis 2006 §4.4), sorted. ----
+  const rows = new Int32Array(rowPtr[ns]);
+  const mark = new Int32Array(n).fill(-1);
+  const childHead = new Int32Array(ns).fill(-1);
+  const childNext = new Int32Array(ns).fill(-1);
+  for (let s = ns - 1; s >= 0; s--) {
+    const l = superStart[s + 1] - 1;
+    const ps = parent[l] === -1 ? -1 : superOf[parent[l]];
+    if (ps !== -1) {
+      childNext[s] = childHead[ps];
+      childHead[ps] = s;
+    }
+  }
+  for (let s = 0; s < ns; s++) {
+    const f = superStart[s];
+    const l = superStart[s + 1] - 1;
+    let w = rowPtr[s];
+    for (let j = f; j <= l; j++) rows[w++] = j;
+    const below = w;
+    for (let j = f; j <= l; j++) {
+      for (let p = c.lPtr[j]; p < c.lPtr[j + 1]; p++) {
+        const i = c.lIdx[p];
+        if (i > l && mark[i] !== s) {
+          mark[i] = s;
+          rows[w++] = i;
+        }
+      }
+    }
+    for (let ch = childHead[s]; ch !== -1; ch = childNext[ch]) {
+      const ncc = superStart[ch + 1] - superStart[ch];
+      for (let p = rowPtr[ch] + ncc; p < rowPtr[ch + 1]; p++) {
+        const i = rows[p];
+        if (i > l && mark[i] !== s) {
+          mark[i] = s;
+          rows[w++] = i;
+        }
+      }
+    }
+    if (w !== rowPtr[s + 1]) throw new Error(`ldlt analyse: supernode ${s} has ${w - rowPtr[s]} rows, column counts say ${rowPtr[s + 1] - rowPtr[s]}`);
+    rows.subarray(below, w).sort();
+  }
+
+  // --- Where each input value lands in the factor's blocks -------------------------------
+  const nz = pattern.colPtr[n];
+  const lxPos = new Int32Array(nz);
+  const rel = mark; // reuse: rel[i] = local row of global row i in the current supernode
+  for (let s = 0; s < ns; s++) {
+    const f = superStart[s];
+    const nc = superStart[s + 1] - f;
+    for (let p = rowPtr[s]; p < rowPtr[s + 1]; p++) rel[rows[p]] = p - rowPtr[s];
+    const base = lxPtr[s];
+    for (let j = f; j < f + nc; j++) {
+      for (let p = c.lPtr[j]; p < c.lPtr[j + 1]; p++) lxPos[c.lOrig[p]] = base + rel[c.lIdx[p]] * nc + (j - f);
+    }
+  }
+  const diagPos = new Int32Array(n).fill(-1);
+  for (let j = 0; j < n; j++) {
+    const p = pattern.colPtr[j];
+    if (p < pattern.colPtr[j + 1] && pattern.rowIdx[p] === j) diagPos[j] = p;
+  }
+
+  const sym: SupernodalSymbolic = {
+    n,
+    perm,
+    ordering: name,
+    nnzL,
+    flops,
+    supernodes: ns,
+    patternNnz: nz,
+    kind: 'supernodal',
+    pinv,
+    superStart,
+    superOf,
+    rowPtr,
+    rows,
+    lxPtr,
+    lxPos,
+    diagPos,
+    maxCols,
+    maxRows,
+    maxBlock,
+    ...(candidates ? { candidates } : {}),
+  };
+  return sym;
+}

@@ -1,0 +1,90 @@
+import { describe, expect, it } from 'vitest';
+import { Matrix } from 'ml-matrix';
+import { mlMatrixGeneralized } from '../src/eigen/baseline';
+import { massNormalise, matrixNorm1, orthogonalityError, residuals } from '../src/eigen/verify';
+import { ArgumentError, VerificationError } from '../src/errors';
+import type { Operator } from '../src/linalg/operator';
+import { fromDenseArray, symmetricMultiply } from '../src/linalg/sparse/symmetric';
+import { randomSpd, seeded } from './eigen-dense-helpers';
+
+function toMatrix(n: number, a: Float64Array): Matrix {
+  const m = new Matrix(n, n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, a[i * n + j]);
+  return m;
+}
+
+/** Reference 1-norm through ml-matrix: max over columns of the column sums of |A|. */
+function norm1Reference(a: Matrix): number {
+  return Math.max(...a.clone().abs().sum('column'));
+}
+
+describe('verify: checks of eigenpairs', () => {
+  const n = 15;
+  const rand = seeded(31);
+  const k = randomSpd(n, rand, 0.2);
+  const m = randomSpd(n, rand, 1.0);
+  const K = fromDenseArray(n, k);
+  const M = fromDenseArray(n, m);
+  // Reference eigenpairs: ml-matrix's dense route (general-purpose library).
+  const ref = mlMatrixGeneralized(toMatrix(n, k), toMatrix(n, m));
+
+  it('matrixNorm1 of SymmetricCsc, dense and ml-matrix equals ml-matrix column sums', () => {
+    const expected = norm1Reference(toMatrix(n, k));
+    expect(matrixNorm1(K)).toBeCloseTo(expected, 10);
+    expect(matrixNorm1({ n, data: k })).toBeCloseTo(expected, 10);
+    expect(matrixNorm1(toMatrix(n, k))).toBeCloseTo(expected, 10);
+  });
+
+  it("matrixNorm1 of a bare Operator (Hager's estimate) is a lower bound close to the norm", () => {
+    const op: Operator = { n, apply: (x, y) => symmetricMultiply(K, x, y) };
+    const exact = norm1Reference(toMatrix(n, k));
+    const est = matrixNorm1(op);
+    expect(est).toBeLessThanOrEqual(exact * (1 + 1e-14));
+    // Hager's estimate is rarely off by more than a factor 3 (Higham 1988, from memory).
+    expect(est).toBeGreaterThan(exact / 3);
+  });
+
+  it('residuals of the reference pairs are at round-off; of perturbed values they are not', () => {
+    const r = residuals(K, M, ref.eigenvalues, ref.vectors);
+    for (const x of r) expect(x).toBeLessThan(1e-12);
+    const wrong = ref.eigenvalues.slice();
+    wrong[3] *= 1.01;
+    const r2 = residuals(K, M, wrong, ref.vectors);
+    expect(r2[3]).toBeGreaterThan(1e-4);
+    expect(r2[2]).toBeLessThan(1e-12);
+  });
+
+  it('orthogonalityError of the reference modes is at round-off, and sees a scaled mode', () => {
+    expect(orthogonalityError(M, ref.vectors, n)).toBeLessThan(1e-12);
+    const v = ref.vectors.slice();
+    for (let i = 0; i < n; i++) v[2 * n + i] *= 1.1; // φ₂ᵀMφ₂ = 1.21
+    expect(orthogonalityError({ n, data: m }, v, n)).toBeCloseTo(0.21, 10);
+  });
+
+  it('massNormalise restores unit modal mass and returns the modal masses', () => {
+    const v = ref.vectors.slice();
+    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) v[j * n + i] *= j + 2;
+    const masses = massNormalise(M, v);
+    for (let j = 0; j < n; j++) expect(masses[j]).toBeCloseTo((j + 2) ** 2, 9);
+    expect(orthogonalityError(M, v, n)).toBeLessThan(1e-12);
+  });
+
+  it('massNormalise of a zero mode throws VerificationError naming the mode', () => {
+    const v = new Float64Array(2 * n);
+    v[0] = 1;
+    try {
+      massNormalise(M, v);
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(VerificationError);
+      expect((e as VerificationError).path).toBe('modes[1]');
+    }
+  });
+
+  it('size mismatches throw ArgumentError', () => {
+    const M3 = fromDenseArray(3, [1, 0, 0, 0, 1, 0, 0, 0, 1]);
+    expect(() => residuals(K, M3, ref.eigenvalues, ref.vectors)).toThrow(ArgumentError);
+    expect(() => orthogonalityError(M, new Float64Array(n), 2)).toThrow(ArgumentError);
+    expect(() => massNormalise(M, new Float64Array(n + 1))).toThrow(ArgumentError);
+  });
+});
