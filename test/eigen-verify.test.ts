@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Matrix } from 'ml-matrix';
 import { mlMatrixGeneralized } from '../src/eigen/baseline';
-import { massNormalise, matrixNorm1, orthogonalityError, residuals } from '../src/eigen/verify';
+import { matrixNorm1, orthogonalityError, residuals } from '../src/eigen/verify';
 import { ArgumentError, VerificationError } from '../src/errors';
 import type { Operator } from '../src/linalg/operator';
 import { fromDenseArray, symmetricMultiply } from '../src/linalg/sparse/symmetric';
@@ -61,30 +61,9 @@ describe('verify: checks of eigenpairs', () => {
     expect(orthogonalityError({ n, data: m }, v, n)).toBeCloseTo(0.21, 10);
   });
 
-  it('massNormalise restores unit modal mass and returns the modal masses', () => {
-    const v = ref.vectors.slice();
-    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) v[j * n + i] *= j + 2;
-    const masses = massNormalise(M, v);
-    for (let j = 0; j < n; j++) expect(masses[j]).toBeCloseTo((j + 2) ** 2, 9);
-    expect(orthogonalityError(M, v, n)).toBeLessThan(1e-12);
-  });
-
-  it('massNormalise of a zero mode throws VerificationError naming the mode', () => {
-    const v = new Float64Array(2 * n);
-    v[0] = 1;
-    try {
-      massNormalise(M, v);
-      expect.unreachable();
-    } catch (e) {
-      expect(e).toBeInstanceOf(VerificationError);
-      expect((e as VerificationError).path).toBe('modes[1]');
-    }
-  });
-
   it('size mismatches throw ArgumentError', () => {
     const M3 = fromDenseArray(3, [1, 0, 0, 0, 1, 0, 0, 0, 1]);
     expect(() => residuals(K, M3, ref.eigenvalues, ref.vectors)).toThrow(ArgumentError);
     expect(() => orthogonalityError(M, new Float64Array(n), 2)).toThrow(ArgumentError);
-    expect(() => massNormalise(M, new Float64Array(n + 1))).toThrow(ArgumentError);
   });
 });

@@ -75,10 +75,12 @@ export function subtractColumns(v: Float64Array, n: number, c0: number, c1: numb
 
 /**
  * In place: V[:, c0 .. c0+k) ← V[:, c0 .. c0+m) · S, S an m × k column-major matrix (leading
- * dimension ldS), k ≤ m. Rows are processed in blocks copied to `tmp` first, so the result may
- * overwrite its own input.
+ * dimension ldS), k ≤ m. Rows are processed in blocks copied (transposed, row-major) to `tmp`
+ * first, so the result may overwrite its own input; each block is then a small GEMM with a
+ * 2-row × 4-column register block (8 accumulators, 6 loads per 8 multiply-adds).
  * @param v - basis, column-major n × (≥ c0 + m)
- * @param tmp - work buffer of length ≥ m · rowBlock (rowBlock = ⌊tmp.length / m⌋, at least 1)
+ * @param tmp - work buffer of length ≥ m · rowBlock (rowBlock = ⌊tmp.length / m⌋, at least 1;
+ *   256 rows measured fastest at n ≈ 84,000, m = 41)
  */
 export function combineColumnsInPlace(
   v: Float64Array,
@@ -92,44 +94,76 @@ export function combineColumnsInPlace(
 ): void {
   const rb = Math.max(1, Math.floor(tmp.length / m));
   for (let r0 = 0; r0 < n; r0 += rb) {
-    const r1 = Math.min(n, r0 + rb);
-    const b = r1 - r0;
-    // Gather the row block of the m input columns, column-major b × m.
+    const b = Math.min(n, r0 + rb) - r0;
+    // Gather rows r0 .. r0+b of the m input columns, row-major b × m.
     for (let i = 0; i < m; i++) {
       const src = (c0 + i) * n + r0;
-      const dst = i * b;
-      for (let r = 0; r < b; r++) tmp[dst + r] = v[src + r];
+      for (let r = 0; r < b; r++) tmp[r * m + i] = v[src + r];
     }
-    for (let c = 0; c < k; c++) {
-      const out = (c0 + c) * n + r0;
-      const sc = c * ldS;
-      // Four input columns per pass: one load/store of the output serves four multiply-adds.
-      let i = 0;
-      if (m >= 4) {
-        const s0 = s[sc];
-        const s1 = s[sc + 1];
-        const s2 = s[sc + 2];
-        const s3 = s[sc + 3];
-        for (let r = 0; r < b; r++) v[out + r] = tmp[r] * s0 + tmp[b + r] * s1 + tmp[2 * b + r] * s2 + tmp[3 * b + r] * s3;
-        i = 4;
-      } else {
-        for (let r = 0; r < b; r++) v[out + r] = 0;
+    let r = 0;
+    for (; r + 2 <= b; r += 2) {
+      const t0 = r * m;
+      const t1 = t0 + m;
+      let c = 0;
+      for (; c + 4 <= k; c += 4) {
+        const s0 = c * ldS;
+        const s1 = s0 + ldS;
+        const s2 = s1 + ldS;
+        const s3 = s2 + ldS;
+        let a00 = 0;
+        let a01 = 0;
+        let a02 = 0;
+        let a03 = 0;
+        let a10 = 0;
+        let a11 = 0;
+        let a12 = 0;
+        let a13 = 0;
+        for (let i = 0; i < m; i++) {
+          const x0 = tmp[t0 + i];
+          const x1 = tmp[t1 + i];
+          const y0 = s[s0 + i];
+          const y1 = s[s1 + i];
+          const y2 = s[s2 + i];
+          const y3 = s[s3 + i];
+          a00 += x0 * y0;
+          a01 += x0 * y1;
+          a02 += x0 * y2;
+          a03 += x0 * y3;
+          a10 += x1 * y0;
+          a11 += x1 * y1;
+          a12 += x1 * y2;
+          a13 += x1 * y3;
+        }
+        const o = (c0 + c) * n + r0 + r;
+        v[o] = a00;
+        v[o + 1] = a10;
+        v[o + n] = a01;
+        v[o + n + 1] = a11;
+        v[o + 2 * n] = a02;
+        v[o + 2 * n + 1] = a12;
+        v[o + 3 * n] = a03;
+        v[o + 3 * n + 1] = a13;
       }
-      for (; i + 4 <= m; i += 4) {
-        const s0 = s[sc + i];
-        const s1 = s[sc + i + 1];
-        const s2 = s[sc + i + 2];
-        const s3 = s[sc + i + 3];
-        const t0 = i * b;
-        const t1 = t0 + b;
-        const t2 = t1 + b;
-        const t3 = t2 + b;
-        for (let r = 0; r < b; r++) v[out + r] += tmp[t0 + r] * s0 + tmp[t1 + r] * s1 + tmp[t2 + r] * s2 + tmp[t3 + r] * s3;
+      for (; c < k; c++) {
+        const s0 = c * ldS;
+        let a0 = 0;
+        let a1 = 0;
+        for (let i = 0; i < m; i++) {
+          a0 += tmp[t0 + i] * s[s0 + i];
+          a1 += tmp[t1 + i] * s[s0 + i];
+        }
+        const o = (c0 + c) * n + r0 + r;
+        v[o] = a0;
+        v[o + 1] = a1;
       }
-      for (; i < m; i++) {
-        const si = s[sc + i];
-        const t0 = i * b;
-        for (let r = 0; r < b; r++) v[out + r] += tmp[t0 + r] * si;
+    }
+    for (; r < b; r++) {
+      const t0 = r * m;
+      for (let c = 0; c < k; c++) {
+        const s0 = c * ldS;
+        let a0 = 0;
+        for (let i = 0; i < m; i++) a0 += tmp[t0 + i] * s[s0 + i];
+        v[(c0 + c) * n + r0 + r] = a0;
       }
     }
   }

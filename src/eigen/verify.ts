@@ -185,35 +185,3 @@ export function orthogonalityError(M: SymmetricOperand, vectors: Float64Array, m
   return worst;
 }
 
-/**
- * Scales each mode in place to unit modal mass, φᵀ M φ = 1.
- * @param M - mass, n × n symmetric positive semidefinite
- * @param vectors - mode shapes, column-major n × m (m = vectors.length / n), modified in place
- * @returns the modal masses φᵀ M φ before scaling, length m (kg for displacement DOFs)
- * @throws VerificationError (path `modes[j]`) when a modal mass is not positive and finite
- */
-export function massNormalise(M: SymmetricOperand, vectors: Float64Array): Float64Array {
-  const op = asOperator(M);
-  const n = op.n;
-  if (n === 0 || vectors.length % n !== 0) {
-    throw new ArgumentError(`vectors has ${vectors.length} entries, not a multiple of n = ${n}; pass column-major n × m mode shapes`, 'vectors');
-  }
-  const m = vectors.length / n;
-  const x = new Float64Array(n);
-  const w = new Float64Array(n);
-  const masses = new Float64Array(m);
-  for (let j = 0; j < m; j++) {
-    const o = j * n;
-    for (let p = 0; p < n; p++) x[p] = vectors[o + p];
-    op.apply(x, w);
-    let s = 0;
-    for (let p = 0; p < n; p++) s += x[p] * w[p];
-    if (!(s > 0) || !Number.isFinite(s)) {
-      throw new VerificationError(`modal mass φᵀMφ is ${s}; a mode must have positive finite modal mass (is the mode zero on every massive DOF?)`, `modes[${j}]`);
-    }
-    masses[j] = s;
-    const f = 1 / Math.sqrt(s);
-    for (let p = 0; p < n; p++) vectors[o + p] *= f;
-  }
-  return masses;
-}

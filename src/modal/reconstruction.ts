@@ -2,10 +2,9 @@
  * Spectral reconstruction of the stiffness from the modes. For M-orthonormal Φ with
  * K Φ = M Φ Λ (all n modes), Φ⁻¹ = Φᵀ M, hence K = M Φ Λ Φᵀ M (the spectral
  * decomposition of the generalized problem; Bathe, Finite Element Procedures, 1996, ch. 10,
- * from memory). Over the first
- * m modes, K_m = M Φ_m Λ_m Φ_mᵀ M; K − K_m is what the omitted (high) modes carry, which for a
- * stiffness is most of it: the truncation error shows why few modes represent the dynamics but
- * not the stiffness.
+ * from memory). Over the first m modes, K_m = M Φ_m Λ_m Φ_mᵀ M; K − K_m is what the omitted
+ * (high) modes carry, which for a stiffness is most of it: the truncation error shows why few
+ * modes represent the dynamics but not the stiffness.
  */
 import { ArgumentError } from '../errors';
 import type { Operator } from '../linalg/operator';
@@ -17,13 +16,13 @@ import { dot, modeCount, resolveCount, type ModeSet } from './modes';
  * with M and 2·m dot products/updates of length n per application, no allocation.
  * @param mass - M, n × n symmetric, kg (kg·m² on rotations)
  * @param modes - M-orthonormal shapes, column-major n × m, eigenvalues λ in rad²/s²
- * @param count - modes used, the first ones @defaultValue all m
+ * @param options - `count`: modes used, the first ones @defaultValue all m
  * @returns an operator of dimension n; equals K (N/m) when all n modes are used
  * @throws ArgumentError (path `modes`, `count`) for inconsistent sizes or a bad count
  */
-export function spectralStiffness(mass: SymmetricCsc, modes: ModeSet, count?: number): Operator {
+export function spectralStiffness(mass: SymmetricCsc, modes: ModeSet, options: { count?: number } = {}): Operator {
   const n = mass.n;
-  const m = resolveCount(count, modeCount(modes, n));
+  const m = resolveCount(options.count, modeCount(modes, n));
   const phi = modes.vectors;
   const lambda = modes.eigenvalues;
   const t = new Float64Array(n);

@@ -39,7 +39,7 @@ export function runExport(args: ParsedArgs): CommandOutput {
   const files = [
     { path: join(dir, `${stem}.K.mtx`), content: writeMatrixMarket(asm.stiffness, `stiffness${title}, free DOFs, N/m and N·m/rad`) },
     { path: join(dir, `${stem}.M.mtx`), content: writeMatrixMarket(asm.mass, `mass${title}, free DOFs, kg and kg·m²`) },
-    { path: join(dir, `${stem}.dofs.json`), content: writeDofMap(asm.dofs) },
+    { path: join(dir, `${stem}.dofs.json`), content: writeDofMap(asm.dofs, { format: 'json' }) },
   ];
   writeFilesAtomically(files);
   return { stdout: files.map((f) => f.path).join('\n') + '\n', stderr: `eigenframe: ${asm.dofs.length} free DOFs written\n` };
