@@ -52,6 +52,13 @@ describe('orderings return permutations', () => {
     const a = randomPattern(1500, 5, 3);
     expect(isPermutation(nestedDissection(a, { leafSize: 8 }), a.n)).toBe(true);
   });
+  it('many components (10,000 pairs and isolated vertices) with tiny leaves', () => {
+    const members: number[] = [];
+    for (let i = 0; i < 10_000; i++) members.push(3 * i, 3 * i + 1); // vertex 3i + 2 isolated
+    const a = nodalPattern(30_000, 1, members);
+    // (a per-component pass over all n vertices would make this ≈ 10⁹ steps and time out)
+    for (const p of [nestedDissection(a, { leafSize: 1 }), amd(a), rcm(a)]) expect(isPermutation(p, a.n)).toBe(true);
+  });
   it('nestedDissection is deterministic for a seed', () => {
     const a = grid2dPattern(40);
     const o = { seed: 5, leafSize: 50 };

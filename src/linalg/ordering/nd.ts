@@ -66,9 +66,11 @@ function makeRng(seed: number): () => number {
  * heavy-edge matching coarsening (§3), greedy graph growing initial bisection (§4), boundary
  * Kernighan–Lin/Fiduccia–Mattheyses refinement while uncoarsening (§5), then a vertex separator
  * as a minimum vertex cover of the cut edges (König's theorem, via maximum bipartite matching),
- * improved by moving separator vertices that touch one side only. Separators are ordered last
- * (George, "Nested dissection of a regular finite element mesh", SIAM J. Numer. Anal. 10(2),
- * 1973); parts at most `leafSize` heavy are ordered by approximate minimum degree.
+ * improved by moving separator vertices that touch one side only. Separators are ordered after
+ * the parts they separate (George, "Nested dissection of a regular finite element mesh", SIAM
+ * J. Numer. Anal. 10(2), 1973). Parts at most `leafSize` heavy are not split further; the
+ * final order is one constrained minimum-degree pass (amdGraph with constraint sets) in which
+ * every leaf part and every separator is a set, taken in dissection order.
  *
  * @returns perm of length g.n: perm[k] = vertex eliminated k-th.
  */
@@ -115,11 +117,20 @@ function dissect(g: WGraph, ids: Int32Array, out: Int32Array, state: NdState): v
   const comp = new Int32Array(n);
   const ncomp = components(g, comp);
   if (ncomp > 1) {
+    // Bucket the vertices by component (counting sort), then extract each component from its
+    // own vertex list: linear in n however many components there are.
+    const cptr = new Int32Array(ncomp + 1);
+    for (let v = 0; v < n; v++) cptr[comp[v] + 1]++;
+    for (let c = 0; c < ncomp; c++) cptr[c + 1] += cptr[c];
+    const byComp = new Int32Array(n);
+    const at = cptr.slice(0, ncomp);
+    for (let v = 0; v < n; v++) byComp[at[comp[v]]++] = v;
+    const local = new Int32Array(n).fill(-1);
     for (let c = 0; c < ncomp; c++) {
-      const sub = extract(g, comp, c);
-      const subIds = new Int32Array(sub.verts.length);
-      for (let t = 0; t < subIds.length; t++) subIds[t] = ids[sub.verts[t]];
-      dissect(sub.graph, subIds, out, state);
+      const sub = extractList(g, byComp.subarray(cptr[c], cptr[c + 1]), local);
+      const subIds = new Int32Array(sub.n);
+      for (let t = 0; t < sub.n; t++) subIds[t] = ids[byComp[cptr[c] + t]];
+      dissect(sub, subIds, out, state);
     }
     return;
   }
@@ -144,7 +155,7 @@ function dissect(g: WGraph, ids: Int32Array, out: Int32Array, state: NdState): v
     for (let t = 0; t < subIds.length; t++) subIds[t] = ids[sub.verts[t]];
     dissect(sub.graph, subIds, out, state);
   }
-  // Separator last, in the order minimum degree gives its own subgraph.
+  // The separator: one constraint set, after both parts it separates.
   const sep = extract(g, where, 2);
   const sepIds = new Int32Array(sep.verts.length);
   for (let t = 0; t < sepIds.length; t++) sepIds[t] = ids[sep.verts[t]];
@@ -224,6 +235,39 @@ function extract(g: WGraph, label: Int32Array, which: number): { graph: WGraph; 
   return { graph: { n: m, xadj: sx, adjncy: sa, vwgt: sv, adjwgt: sw, total }, verts };
 }
 
+/**
+ * Subgraph induced by the vertex list verts (in that order); `local` is an all −1 scratch map
+ * of length g.n, left all −1 again on return.
+ */
+function extractList(g: WGraph, verts: Int32Array, local: Int32Array): WGraph {
+  const { xadj, adjncy, vwgt, adjwgt } = g;
+  const m = verts.length;
+  for (let t = 0; t < m; t++) local[verts[t]] = t;
+  let ne = 0;
+  for (let t = 0; t < m; t++) ne += xadj[verts[t] + 1] - xadj[verts[t]]; // a component keeps all its edges
+  const sx = new Int32Array(m + 1);
+  const sa = new Int32Array(ne);
+  const sw = new Int32Array(ne);
+  const sv = new Int32Array(m);
+  let total = 0;
+  let e = 0;
+  for (let t = 0; t < m; t++) {
+    const v = verts[t];
+    sv[t] = vwgt[v];
+    total += vwgt[v];
+    for (let p = xadj[v]; p < xadj[v + 1]; p++) {
+      const u = local[adjncy[p]];
+      if (u >= 0) {
+        sa[e] = u;
+        sw[e++] = adjwgt[p];
+      }
+    }
+    sx[t + 1] = e;
+  }
+  for (let t = 0; t < m; t++) local[verts[t]] = -1;
+  return { n: m, xadj: sx, adjncy: sa.subarray(0, e), vwgt: sv, adjwgt: sw.subarray(0, e), total };
+}
+
 // ==========================================================================================
 // Multilevel edge bisection
 // ==========================================================================================
@@ -243,7 +287,8 @@ function bisect(g: WGraph, state: NdState): Int32Array {
   }
   // --- Initial bisection of the coarsest graph (§4, greedy graph growing) --------------------
   const maxw = Math.floor(((1 + state.opt.imbalance) / 2) * g.total);
-  let where = initialBisection(cur, state, maxw);
+  const work = new FmWork(g.n); // sized for the finest level, reused by every level
+  let where = initialBisection(cur, state, maxw, work);
   // --- Uncoarsen and refine (§5, boundary FM) --------------------------------------------------
   for (let l = levels.length - 2; l >= 0; l--) {
     const fine = levels[l];
@@ -251,7 +296,7 @@ function bisect(g: WGraph, state: NdState): Int32Array {
     const fw = new Int32Array(fine.n);
     for (let v = 0; v < fine.n; v++) fw[v] = where[cmap[v]];
     where = fw;
-    fmRefine(fine, where, maxw, 4);
+    fmRefine(fine, where, maxw, 4, work);
   }
   return where;
 }
@@ -332,13 +377,13 @@ function coarsen(g: WGraph, rng: () => number): { coarse: WGraph; cmap: Int32Arr
     cx[c + 1] = e;
   }
   return {
-    coarse: { n: nc, xadj: cx, adjncy: ca.slice(0, e), vwgt: cv, adjwgt: cw.slice(0, e), total: g.total },
+    coarse: { n: nc, xadj: cx, adjncy: ca.subarray(0, e), vwgt: cv, adjwgt: cw.subarray(0, e), total: g.total },
     cmap,
   };
 }
 
 /** Best of several greedy-graph-growing bisections, each refined by FM. */
-function initialBisection(g: WGraph, state: NdState, maxw: number): Int32Array {
+function initialBisection(g: WGraph, state: NdState, maxw: number, work: FmWork): Int32Array {
   const { n } = g;
   let best: Int32Array | null = null;
   let bestCut = Infinity;
@@ -375,7 +420,7 @@ function initialBisection(g: WGraph, state: NdState, maxw: number): Int32Array {
         } else if (heap.contains(u)) heap.update(u, gain[u]);
       }
     }
-    fmRefine(g, where, maxw, 4);
+    fmRefine(g, where, maxw, 4, work);
     const cut = edgeCut(g, where);
     let wa = 0;
     for (let v = 0; v < n; v++) if (where[v] === 0) wa += g.vwgt[v];
@@ -402,13 +447,9 @@ function edgeCut(g: WGraph, where: Int32Array): number {
  * each pass moves the boundary vertex of largest gain that keeps both sides ≤ maxw, locks it,
  * and rolls back to the best cut seen; stops after a pass without improvement.
  */
-function fmRefine(g: WGraph, where: Int32Array, maxw: number, passes: number): void {
+function fmRefine(g: WGraph, where: Int32Array, maxw: number, passes: number, work: FmWork): void {
   const { n, xadj, adjncy, adjwgt, vwgt } = g;
-  const id = new Int32Array(n);
-  const ed = new Int32Array(n);
-  const locked = new Uint8Array(n);
-  const moved = new Int32Array(n);
-  const heaps = [new MaxHeap(n), new MaxHeap(n)];
+  const { id, ed, locked, moved, heaps } = work;
   const pw = [0, 0];
   for (let v = 0; v < n; v++) pw[where[v]] += vwgt[v];
   const limit = Math.max(25, Math.min(150, Math.floor(n / 20)));
@@ -515,12 +556,14 @@ function separatorFromCut(g: WGraph, where: Int32Array): void {
   const { n, xadj, adjncy } = g;
   const mate = new Int32Array(n).fill(-1);
   const seen = new Int32Array(n).fill(-1);
-  const b0: number[] = [];
+  // side-0 vertices with a neighbour on side 1
+  const b0 = new Int32Array(n);
+  let nb0 = 0;
   for (let v = 0; v < n; v++) {
     if (where[v] !== 0) continue;
     for (let p = xadj[v]; p < xadj[v + 1]; p++) {
       if (where[adjncy[p]] === 1) {
-        b0.push(v);
+        b0[nb0++] = v;
         break;
       }
     }
@@ -529,7 +572,7 @@ function separatorFromCut(g: WGraph, where: Int32Array): void {
   const stackV = new Int32Array(n);
   const stackP = new Int32Array(n);
   const parentU = new Int32Array(n);
-  for (let r = 0; r < b0.length; r++) {
+  for (let r = 0; r < nb0; r++) {
     const root = b0[r];
     // quick greedy match first
     let done = false;
@@ -582,7 +625,8 @@ function separatorFromCut(g: WGraph, where: Int32Array): void {
   const queue = new Int32Array(n);
   let qh = 0;
   let qt = 0;
-  for (const v of b0) {
+  for (let t = 0; t < nb0; t++) {
+    const v = b0[t];
     if (mate[v] === -1) {
       reach[v] = 1;
       queue[qt++] = v;
@@ -601,10 +645,9 @@ function separatorFromCut(g: WGraph, where: Int32Array): void {
       }
     }
   }
-  const sep: number[] = [];
-  for (const v of b0) if (!reach[v]) sep.push(v);
-  for (let v = 0; v < n; v++) if (where[v] === 1 && reach[v]) sep.push(v);
-  for (const v of sep) where[v] = 2;
+  // cover = unreached side-0 boundary ∪ reached side-1 vertices
+  for (let v = 0; v < n; v++) if (where[v] === 1 && reach[v]) where[v] = 2;
+  for (let t = 0; t < nb0; t++) if (!reach[b0[t]]) where[b0[t]] = 2;
 }
 
 /**
@@ -635,6 +678,22 @@ function refineSeparator(g: WGraph, where: Int32Array): void {
       pw[to] += vwgt[v];
       changed = true;
     }
+  }
+}
+
+/** Scratch arrays of fmRefine, allocated once per bisection for its finest graph. */
+class FmWork {
+  readonly id: Int32Array;
+  readonly ed: Int32Array;
+  readonly locked: Uint8Array;
+  readonly moved: Int32Array;
+  readonly heaps: [MaxHeap, MaxHeap];
+  constructor(n: number) {
+    this.id = new Int32Array(n);
+    this.ed = new Int32Array(n);
+    this.locked = new Uint8Array(n);
+    this.moved = new Int32Array(n);
+    this.heaps = [new MaxHeap(n), new MaxHeap(n)];
   }
 }
 
