@@ -8,6 +8,8 @@ import type { CommandOutput } from './output';
 import { MODES_SPEC, runModes } from './commands/modes';
 import { EXPORT_SPEC, runExport } from './commands/export';
 import { REFERENCE_SPEC, runReference } from './commands/reference';
+import { SCREEN_SPEC, runScreen } from './commands/screen';
+import { RESPONSE_SPEC, runResponse } from './commands/response';
 import { VERSION } from '../version';
 
 interface Command {
@@ -18,6 +20,8 @@ interface Command {
 const COMMANDS: Record<string, Command> = {
   modes: { spec: MODES_SPEC, run: runModes },
   export: { spec: EXPORT_SPEC, run: runExport },
+  screen: { spec: SCREEN_SPEC, run: runScreen },
+  response: { spec: RESPONSE_SPEC, run: runResponse },
   reference: { spec: REFERENCE_SPEC, run: runReference },
 };
 

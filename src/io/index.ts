@@ -3,3 +3,5 @@ export { readMatrixMarket, writeMatrixMarket, writeDofMap, READ_MATRIX_MARKET_DE
 export { formatModesText, formatMatrixModesText } from './report-text';
 export { modesJsonObject, matrixModesJsonObject, verificationObject, type JsonReportOptions } from './report-json';
 export { ENGINEERING_CAUTION } from './caution';
+export { formatScreeningText, screeningJsonObject, SCREENING_NOTE } from './report-screening';
+export { formatHarmonicText, harmonicJsonObject, formatPedestrianText, pedestrianJsonObject, type SweepDescription } from './report-response';

@@ -231,6 +231,13 @@ export function classifyModes(analysis: ModalAnalysis, options: ClassifyOptions 
   }
 
   // ---- per mode ----
+  const dofSlot = new Int32Array(n);
+  const dofNode = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    const d = assembled.dofs[i];
+    dofSlot[i] = TRANS.includes(d.dof) ? TRANS.indexOf(d.dof) : 3 + ROT.indexOf(d.dof);
+    dofNode[i] = d.nodeIndex;
+  }
   const u = new Float64Array(3 * nn);
   const num = new Float64Array(stationCount);
   const theta = new Float64Array(stationCount);
@@ -243,13 +250,9 @@ export function classifyModes(analysis: ModalAnalysis, options: ClassifyOptions 
     u.fill(0);
     let rotTorsion = 0;
     for (let i = 0; i < n; i++) {
-      const d = assembled.dofs[i];
-      const slot = TRANS.indexOf(d.dof);
-      if (slot >= 0) u[3 * d.nodeIndex + slot] = phi[i];
-      else if (a) {
-        const rs = ROT.indexOf(d.dof);
-        rotTorsion += Mdiag[i] * (phi[i] * a[rs]) ** 2;
-      }
+      const slot = dofSlot[i];
+      if (slot < 3) u[3 * dofNode[i] + slot] = phi[i];
+      else if (a) rotTorsion += Mdiag[i] * (phi[i] * a[slot - 3]) ** 2;
     }
     const e = zeroShares();
     e.torsional = rotTorsion;
@@ -268,13 +271,10 @@ export function classifyModes(analysis: ModalAnalysis, options: ClassifyOptions 
     for (let k = 0; k < nn; k++) {
       const mk = nodeMass[k];
       if (mk === 0) continue;
-      let w0 = u[3 * k];
-      let w1 = u[3 * k + 1];
-      let w2 = u[3 * k + 2];
       const th = theta[station[k]];
-      w0 -= th * ar[3 * k];
-      w1 -= th * ar[3 * k + 1];
-      w2 -= th * ar[3 * k + 2];
+      const w0 = u[3 * k] - th * ar[3 * k];
+      const w1 = u[3 * k + 1] - th * ar[3 * k + 1];
+      const w2 = u[3 * k + 2] - th * ar[3 * k + 2];
       e.vertical += mk * (w0 * V[0] + w1 * V[1] + w2 * V[2]) ** 2;
       e.longitudinal += mk * (w0 * Lx[0] + w1 * Lx[1] + w2 * Lx[2]) ** 2;
       if (T) e.lateral += mk * (w0 * T[0] + w1 * T[1] + w2 * T[2]) ** 2;

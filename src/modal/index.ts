@@ -9,3 +9,25 @@ export { massNormalise, orientModes, MASS_NORMALISE_DEFAULTS, type MassNormalise
 export { spectralStiffness, truncationError, TRUNCATION_DEFAULTS, type TruncationOptions, type TruncationMethod } from './reconstruction';
 export { modalStatic, type ModalStaticOptions, type ModalStaticResult } from './static';
 export type { ModeSet } from './modes';
+export {
+  BAND_PRESETS, BAND_PRESET_NAMES, bandPreset, machineBand, MACHINE_BAND_DEFAULTS, validateBand, validateBands, bandExcites, MOTION_DIRECTIONS,
+  type MotionDirection, type BandDirection, type BandSpec, type ExcitationBand, type MachineBandOptions,
+} from './bands';
+export { classifyModes, structureAxes, CLASSIFY_DEFAULTS, type Classification, type ModeClassification, type StructureAxes, type ClassifyOptions } from './classify';
+export {
+  screenResonance, SCREENING_DEFAULTS,
+  type ScreeningResult, type ModeScreening, type BandCheck, type ScreeningVerdict, type ScreeningCoverage, type ScreeningOptions,
+} from './screening';
+export { dampingRatios, rayleighDamping, type Damping } from './damping';
+export { resolveDofs, loadVector, responseModes, modalLoads, type DofRef, type PointLoad, type ResponseModes } from './harmonic-dofs';
+export { harmonicResponse, frequencySweep, HARMONIC_DEFAULTS, type HarmonicOptions, type HarmonicResult, type DofHarmonicResponse, type SweepOptions } from './harmonic';
+export { pedestrianResponse, PEDESTRIAN_DEFAULTS, type PedestrianOptions, type PedestrianResult } from './harmonic-pedestrian';
+export {
+  designSpectrum, spectralAcceleration, responseSpectrum, STANDARD_GRAVITY, DESIGN_SPECTRUM_DEFAULTS, RESPONSE_SPECTRUM_DEFAULTS,
+  type SpectrumPoint, type DesignSpectrum, type ResponseSpectrumOptions, type ResponseSpectrumResult, type ModalPeak,
+} from './spectrum';
+export { cqcCorrelation, combineModal, correlationMatrix, type CombinationRule } from './spectrum-combination';
+export {
+  transientResponse, historyValue, TRANSIENT_DEFAULTS,
+  type TransientOptions, type TransientResult, type TransientLoad, type LoadHistory, type TransientMethod, type DofTransientResponse,
+} from './transient';

@@ -1,0 +1,100 @@
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { ArgumentError } from '../src/errors';
+import { parseArgs } from '../src/cli/args';
+import { runScreen, SCREEN_SPEC, parseBandOption } from '../src/cli/commands/screen';
+import { runResponse, RESPONSE_SPEC } from '../src/cli/commands/response';
+import { ENGINEERING_CAUTION } from '../src/io/caution';
+
+const model = new URL('../examples/footbridge.json', import.meta.url).pathname;
+const screen = (...argv: string[]) => runScreen(parseArgs(SCREEN_SPEC, argv));
+const response = (...argv: string[]) => runResponse(parseArgs(RESPONSE_SPEC, argv));
+
+function pathOf(f: () => unknown): string {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(ArgumentError);
+    return (e as ArgumentError).path;
+  }
+  return 'no error';
+}
+
+describe('eigenframe screen', () => {
+  it('default walking bands: text with verdict, coverage and caution', () => {
+    const out = screen(model);
+    expect(out.stdout).toContain('Verdict:');
+    expect(out.stdout).toContain('Coverage: every mode up to');
+    expect(out.stdout).toContain(ENGINEERING_CAUTION);
+    expect(out.stdout).toContain('walking-lateral');
+  });
+
+  it('a machine band and a band of the user, as JSON', () => {
+    // 580 rpm = 9.667 Hz (rpm/60), which the demo's vertical mode sits next to.
+    const out = screen(model, '--rpm', '580', '--rpm-tolerance', '5', '--band', 'deck:0:1:vertical+lateral', '--json');
+    const j = JSON.parse(out.stdout);
+    expect(j.format).toBe('eigenframe-screening/1');
+    expect(j.bands.map((b: { name: string }) => b.name)).toEqual(['deck', 'machine 580 rpm']);
+    expect(j.bands[1].fLow).toBeCloseTo((580 / 60) * 0.95, 9);
+    expect(j.coverage.complete).toBe(true);
+    expect(j.verdict).toBe('in-band');
+    expect(j.caution).toBe(ENGINEERING_CAUTION);
+  });
+
+  it('writes the report to a file', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'ef-screen-'));
+    try {
+      const out = screen(model, '--preset', 'jogging', '--output', join(dir, 'r.txt'));
+      expect(out.stdout).toBe('');
+      expect(readFileSync(join(dir, 'r.txt'), 'utf8')).toContain('jogging');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('bad input names the option', () => {
+    expect(pathOf(() => screen(model, '--band', 'pump:9:x:any'))).toBe('--band');
+    expect(pathOf(() => screen(model, '--band', 'pump:9:8:any'))).toBe('--band');
+    expect(pathOf(() => screen(model, '--band', 'pump:9:10:sideways'))).toBe('--band');
+    expect(pathOf(() => screen(model, '--preset', 'marching'))).toBe('--preset');
+    expect(pathOf(() => screen(model, '--rpm-tolerance', '5'))).toBe('--rpm-tolerance');
+    expect(pathOf(() => screen(model, '--clearance', '150'))).toBe('--clearance');
+    expect(pathOf(() => screen())).toBe('screen');
+    expect(parseBandOption('pump:9:11:vertical+torsional', 0).directions).toEqual(['vertical', 'torsional']);
+  });
+});
+
+describe('eigenframe response', () => {
+  it('sweep at a deck node: natural frequencies merged into the sweep, JSON', () => {
+    const j = JSON.parse(response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '8:11:4', '--json').stdout);
+    expect(j.format).toBe('eigenframe-harmonic/1');
+    expect(j.frequencies.length).toBeGreaterThan(4);
+    expect(j.frequencies[0]).toBe(8);
+    expect(j.responses[0].dof).toBe('uz');
+    expect(j.modesUsed).toBeGreaterThanOrEqual(12);
+    const text = response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '8:11:4', '--damping', '0.02').stdout;
+    expect(text).toContain('damping 2.00 %');
+    expect(text).toContain(ENGINEERING_CAUTION);
+  });
+
+  it('walker on a mode with a comfort limit', () => {
+    const j = JSON.parse(response(model, '--walker', '3', '--comfort-limit', '0.7', '--json').stdout);
+    expect(j.mode).toBe(3);
+    expect(j.comfortLimit).toBe(0.7);
+    expect(['within-limit', 'exceeds-limit']).toContain(j.verdict);
+    expect(response(model, '--walker', '3').stdout).toContain('antinode');
+  });
+
+  it('bad input names the option', () => {
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uw', '--sweep', '1:2:3'))).toBe('--dof');
+    expect(pathOf(() => response(model, '--node', 'zz', '--dof', 'uz', '--sweep', '1:2:3'))).toBe('--node');
+    expect(pathOf(() => response(model, '--node', 'nb0', '--dof', 'uz', '--sweep', '1:2:3'))).toBe('--node'); // supported DOF
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '3:2:3'))).toBe('--sweep');
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--load', 'nb3:uz'))).toBe('--load');
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--damping', '2'))).toBe('--damping');
+    expect(pathOf(() => response(model, '--walker', '2', '--node', 'nb3'))).toBe('--node');
+    expect(pathOf(() => response(model))).toBe('response');
+  });
+});
