@@ -10,6 +10,9 @@ import { EXPORT_SPEC, runExport } from './commands/export';
 import { REFERENCE_SPEC, runReference } from './commands/reference';
 import { SCREEN_SPEC, runScreen } from './commands/screen';
 import { RESPONSE_SPEC, runResponse } from './commands/response';
+import { BUCKLING_SPEC, runBuckling } from './commands/buckling';
+import { SENSITIVITY_SPEC, runSensitivity } from './commands/sensitivity';
+import { REPORT_SPEC, runReport } from './commands/report';
 import { VERSION } from '../version';
 
 interface Command {
@@ -22,6 +25,9 @@ const COMMANDS: Record<string, Command> = {
   export: { spec: EXPORT_SPEC, run: runExport },
   screen: { spec: SCREEN_SPEC, run: runScreen },
   response: { spec: RESPONSE_SPEC, run: runResponse },
+  buckling: { spec: BUCKLING_SPEC, run: runBuckling },
+  sensitivity: { spec: SENSITIVITY_SPEC, run: runSensitivity },
+  report: { spec: REPORT_SPEC, run: runReport },
   reference: { spec: REFERENCE_SPEC, run: runReference },
 };
 

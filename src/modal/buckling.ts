@@ -39,8 +39,8 @@ import { ShiftedPencil } from '../eigen/pencil';
 import { STURM_GAP } from '../eigen/sturm';
 import type { SturmCheck } from '../eigen/types';
 import { matrixNorm1, residuals as pairResiduals } from '../eigen/verify';
-import { ArgumentError, VerificationError } from '../errors';
-import type { OrderingName } from '../linalg/ldlt/types';
+import { ArgumentError, FactorizationError, ModelError, VerificationError } from '../errors';
+import type { LdltFactor, OrderingName } from '../linalg/ldlt/types';
 import type { SymmetricCsc } from '../linalg/sparse/symmetric';
 import { assemble } from '../model/assemble';
 import { DOF_SLOT, SPACE_DOFS } from '../model/dofs';
@@ -89,6 +89,9 @@ export const BUCKLING_DEFAULTS = { count: 4, method: 'auto', tolerance: 1e-12, s
 /** Free DOFs up to which `method: 'auto'` takes the dense route. */
 export const BUCKLING_DENSE_LIMIT = 150;
 
+/** Axial forces below this fraction of the largest |N| count as zero in K_G (round-off). */
+export const AXIAL_NOISE = 1e-9;
+
 /** Largest accepted relative residual of a buckling pair (DESIGN.md accuracy target). */
 export const BUCKLING_RESIDUAL_LIMIT = 1e-8;
 
@@ -102,7 +105,7 @@ export interface BucklingResult {
   readonly displacement: Float64Array;
   /** Axial force per element (model order) under the reference load, N, tension positive. */
   readonly axialForce: Float64Array;
-  /** Geometric stiffness K_G of those forces, lower-stored, n × n. */
+  /** Geometric stiffness K_G of those forces (|N| ≤ AXIAL_NOISE·max|N| taken as 0), lower-stored, n × n. */
   readonly geometricStiffness: SymmetricCsc;
   /** Critical load factors μ, ascending, all > 0: the structure buckles under μ × the load case. */
   readonly loadFactors: Float64Array;
@@ -131,7 +134,7 @@ export interface BucklingResult {
  *   unknown node, a DOF the space lacks, a DOF that is supported or that the node does not have,
  *   a non-finite value, or an empty / all-zero load case
  */
-export function loadVector(asm: AssembledModel, loads: LoadCase): Float64Array {
+export function nodalLoadVector(asm: AssembledModel, loads: LoadCase): Float64Array {
   const model = asm.model;
   if (!Array.isArray(loads) || loads.length === 0) {
     throw new ArgumentError('the load case is empty; give at least one nodal load { node, dof, value }', 'loads');
@@ -202,9 +205,10 @@ export function axialForces(asm: AssembledModel, u: Float64Array): Float64Array 
  * @param options - see {@link BucklingOptions}; defaults in {@link BUCKLING_DEFAULTS}
  * @returns the lowest positive load factors with shapes, the static state they come from, and
  *   verification figures
- * @throws ModelError naming a mechanism; ArgumentError for bad loads or options, (path `count`)
+ * @throws ModelError naming a mechanism (a node's own, or one the static solve meets);
+ *   ArgumentError for bad loads or options, (path `count`)
  *   when the structure has fewer positive load factors than asked for (e.g. no member is in
- *   compression); FactorizationError when K is singular; VerificationError when a result fails
+ *   compression); VerificationError when a result fails
  *   its residual or Sturm check
  */
 export function bucklingAnalysis(input: Model | AssembledModel, loads: LoadCase, options: BucklingOptions = {}): BucklingResult {
@@ -220,63 +224,68 @@ export function bucklingAnalysis(input: Model | AssembledModel, loads: LoadCase,
   assertNoMechanism(asm);
   const K = asm.stiffness;
   const n = K.n;
-  const f = loadVector(asm, loads);
+  const f = nodalLoadVector(asm, loads);
 
   // ---- static state: one analysis of the union pattern of K and K_G serves everything ----
   const ts = performance.now();
   const probe = assembleGeometric(asm, new Float64Array(asm.model.elements.length).fill(-1));
   const pencilProbe = new ShiftedPencil(K, probe, { ordering: o.ordering });
-  const kFactor = pencilProbe.factorAt(0, 1, 1).factor;
+  let kFactor: LdltFactor;
+  try {
+    kFactor = pencilProbe.factorAt(0, 1, 1).factor;
+  } catch (e) {
+    if (!(e instanceof FactorizationError)) throw e;
+    // A singular K here is a mechanism spanning several nodes (single-node ones were caught above).
+    const row = Number(/row (\d+)/.exec(e.path)?.[1] ?? -1);
+    const d = asm.dofs[row];
+    throw new ModelError(
+      `the stiffness is singular${d ? ` at node "${d.node}" dof ${d.dof}` : ''}: the structure is a mechanism and has no static equilibrium under the load case; add supports or bracing`,
+      d ? `nodes[${d.nodeIndex}]` : 'supports',
+    );
+  }
   const displacement = new Float64Array(n);
   kFactor.solve(f, displacement);
   const axialForce = axialForces(asm, displacement);
-  const KG = assembleGeometric(asm, axialForce);
+  // Forces below AXIAL_NOISE × the largest |N| are round-off of members that carry none (e.g.
+  // a girder between two equally loaded columns); they enter K_G as exactly zero, so that a load
+  // case without real compression is reported as such rather than as a huge spurious factor.
+  let maxN = 0;
+  for (const N of axialForce) maxN = Math.max(maxN, Math.abs(N));
+  const effective = axialForce.map((N) => (Math.abs(N) <= AXIAL_NOISE * maxN ? 0 : N));
+  const KG = assembleGeometric(asm, effective);
   // B = −K_G stored on the probe's pattern (members with N = 0 store nothing in K_G), so that
   // the union pattern of K and B, and with it the analysis, stays that of the probe.
   const B = negatedOnPattern(KG, probe);
   const staticMs = performance.now() - ts;
-  if (!axialForce.some((N) => N < 0)) {
+  if (!effective.some((N) => N < 0)) {
     throw new ArgumentError('no member is in compression under this load case, so it has no positive buckling load factor; load the structure so that some member is compressed', 'loads');
   }
 
-  // ---- eigen phase ----
+  // ---- eigen phase (with Sturm-driven reruns on the Lanczos route) ----
   const te = performance.now();
   const method = o.method === 'auto' ? (n <= BUCKLING_DENSE_LIMIT ? 'dense' : 'lanczos') : o.method;
-  let factors: Float64Array;
-  let shapes: Float64Array;
-  let rounds = 0;
-  let steps = 0;
-  if (method === 'dense') {
-    ({ factors, shapes } = denseRoute(K, B, o.count));
-  } else {
-    ({ factors, shapes, rounds, steps } = lanczosRoute(kFactor, K, B, o.count, o.tolerance, o.seed));
-  }
+  const pencil = new ShiftedPencil(K, B, { symbolic: pencilProbe.symbolic });
+  const sturmOf = o.verify ? (all: Float64Array, m: number) => sturmAt(pencil, all, m) : undefined;
+  const found = method === 'dense' ? denseRoute(K, B, o.count, sturmOf) : lanczosRoute(kFactor, K, B, o.count, o.tolerance, o.seed, sturmOf);
+  const { factors, shapes, rounds, steps, sturm } = found;
   const eigenMs = performance.now() - te;
 
   // ---- verification ----
   const tv = performance.now();
   const m = factors.length;
   const res = pairResiduals(K, B, factors, shapes, matrixNorm1(K));
-  let sturm: SturmCheck | undefined;
-  let factorizations = 1;
+  const factorizations = 1 + pencil.factorizations;
   if (o.verify) {
     for (let j = 0; j < m; j++) {
       if (!(res[j] <= BUCKLING_RESIDUAL_LIMIT)) {
         throw new VerificationError(`relative residual ${res[j].toExponential(2)} of load factor ${factors[j]} exceeds ${BUCKLING_RESIDUAL_LIMIT}; try method "dense" or a smaller tolerance`, `bucklingModes[${j}]`);
       }
     }
-    const pencil = new ShiftedPencil(K, B, { symbolic: pencilProbe.symbolic });
-    const hi = factors[m - 1];
-    const sigma = hi + STURM_GAP * hi;
-    const upper = pencil.factorAt(sigma, 1);
-    factorizations += pencil.factorizations;
-    let returnedBelow = 0;
-    for (let j = 0; j < m; j++) if (factors[j] < upper.shift) returnedBelow++;
-    sturm = { shift: upper.shift, countBelow: upper.factor.negativePivots, returnedBelow, passed: upper.factor.negativePivots === returnedBelow };
-    if (!sturm.passed) {
+    if (sturm && !sturm.passed) {
+      const computed = sturm.returnedBelow + (sturm.extraBelow ?? 0);
       throw new VerificationError(
-        `the Sturm count finds ${sturm.countBelow} positive load factor(s) below ${sturm.shift} but ${returnedBelow} were computed; try method "dense" or another seed`,
-        `bucklingModes[${Math.min(returnedBelow, m - 1)}]`,
+        `the Sturm count finds ${sturm.countBelow} positive load factor(s) below ${sturm.shift} but ${computed} were computed; try method "dense" or another seed`,
+        `bucklingModes[${Math.min(computed, m - 1)}]`,
       );
     }
   }
@@ -322,8 +331,38 @@ function tooFew(count: number, found: number): ArgumentError {
   );
 }
 
+/** What a route found. */
+interface Found {
+  factors: Float64Array;
+  shapes: Float64Array;
+  rounds: number;
+  steps: number;
+  sturm?: SturmCheck;
+}
+
+/**
+ * Sturm count of the load factors: negative pivots of K − σB at σ just above the m-th lowest of
+ * `all` (every positive factor computed, ascending) = positive factors below σ (file header).
+ */
+function sturmAt(pencil: ShiftedPencil, all: Float64Array, m: number): SturmCheck {
+  const hi = all[m - 1];
+  const upper = pencil.factorAt(hi + STURM_GAP * hi, 1);
+  let below = 0;
+  for (let j = 0; j < all.length; j++) if (all[j] < upper.shift) below++;
+  const returnedBelow = Math.min(below, m);
+  return {
+    shift: upper.shift,
+    countBelow: upper.factor.negativePivots,
+    returnedBelow,
+    ...(below > returnedBelow ? { extraBelow: below - returnedBelow } : {}),
+    passed: upper.factor.negativePivots === below,
+  };
+}
+
+type SturmOf = ((all: Float64Array, m: number) => SturmCheck) | undefined;
+
 /** Every ν of B φ = ν K φ (K as the positive definite "mass"); the `count` largest positive ones. */
-function denseRoute(K: SymmetricCsc, B: SymmetricCsc, count: number): { factors: Float64Array; shapes: Float64Array } {
+function denseRoute(K: SymmetricCsc, B: SymmetricCsc, count: number, sturmOf: SturmOf): Found {
   const n = K.n;
   const all = denseEigen(B, K, { residualTolerance: Infinity, orthogonalityTolerance: Infinity });
   const nu = all.eigenvalues; // ascending: the largest ν are last
@@ -343,52 +382,72 @@ function denseRoute(K: SymmetricCsc, B: SymmetricCsc, count: number): { factors:
     factors[c] = 1 / nu[j];
     shapes.set(all.vectors.subarray(j * n, (j + 1) * n), c * n);
   });
-  return { factors, shapes };
+  // every positive factor is known here: the count must agree with all of them
+  const every: number[] = [];
+  for (let j = nu.length - 1; j >= 0; j--) if (nu[j] > 1e-12 * scale) every.push(1 / nu[j]);
+  return { factors, shapes, rounds: 0, steps: 0, ...(sturmOf ? { sturm: sturmOf(Float64Array.from(every), count) } : {}) };
 }
+
+/** Reruns of the Lanczos route after a Sturm count found a missed load factor. */
+export const BUCKLING_MAX_ROUNDS = 8;
 
 /**
  * Lanczos on B K⁻¹ in the K⁻¹-inner product (see the file header): "mass" y ↦ K⁻¹y,
- * "inverse" x ↦ Bx; reported eigenvalues are 1/θ = 1/ν = μ. Asks for more pairs while too few
- * positive ones come out.
+ * "inverse" x ↦ Bx; reported eigenvalues are 1/θ = 1/ν = μ. Every pair found is locked (kept
+ * K⁻¹-orthogonal to the next runs), as `solve` does for missed copies of repeated eigenvalues
+ * (Grimes, Lewis & Simon 1994, §3.3): runs continue while too few positive factors came out, or
+ * while the Sturm count finds more factors below the highest returned one than were computed
+ * (a repeated factor of a symmetric structure, e.g. sway in x and in y).
  */
-function lanczosRoute(kFactor: ReturnType<ShiftedPencil['factorAt']>['factor'], K: SymmetricCsc, B: SymmetricCsc, count: number, tolerance: number, seed: number): { factors: Float64Array; shapes: Float64Array; rounds: number; steps: number } {
+function lanczosRoute(kFactor: LdltFactor, K: SymmetricCsc, B: SymmetricCsc, count: number, tolerance: number, seed: number, sturmOf: SturmOf): Found {
   const n = K.n;
   const flexibility: BlockOperator = inverseOperator(kFactor);
   const geometric = matrixOperator(B);
+  const lockedY: Float64Array[] = [];
+  const pos: { mu: number; phi: Float64Array }[] = [];
   let want = count;
   let rounds = 0;
   let steps = 0;
+  let sturm: SturmCheck | undefined;
   for (;;) {
+    const L = lockedY.length;
+    if (L >= n - 1) throw tooFew(count, pos.length);
+    const locked = new Float64Array(n * L);
+    lockedY.forEach((y, c) => locked.set(y, c * n));
     rounds++;
-    const r = lanczos(geometric, flexibility, { count: Math.min(want, n - 1 > 0 ? n - 1 : 1), shift: 0, tolerance, seed });
+    const r = lanczos(geometric, flexibility, { count: Math.max(1, Math.min(want, n - 1 - L)), shift: 0, tolerance, seed: seed + rounds - 1, ...(L > 0 ? { locked, lockedCount: L } : {}) });
     steps += r.steps;
-    const mu = r.eigenvalues; // = 1/ν, ascending: negative ones first, then positive
-    const positive: number[] = [];
-    for (let j = 0; j < mu.length; j++) if (mu[j] > 0 && Number.isFinite(mu[j])) positive.push(j);
-    if (positive.length >= count) {
-      const factors = new Float64Array(count);
-      const shapes = new Float64Array(n * count);
-      for (let c = 0; c < count; c++) {
-        const j = positive[c];
-        // φ = K⁻¹y is Lanczos's "mass" image of the Ritz vector y; refine μ by the Rayleigh
-        // quotient φᵀKφ / φᵀBφ (more accurate than 1/θ when θ is small).
-        const phi = r.massVectors.subarray(j * n, (j + 1) * n);
-        shapes.set(phi, c * n);
-        factors[c] = rayleigh(K, B, phi);
+    const p = r.eigenvalues.length;
+    for (let j = 0; j < p; j++) {
+      lockedY.push(r.vectors.slice(j * n, (j + 1) * n));
+      // φ = K⁻¹y is Lanczos's "mass" image of the Ritz vector y; μ is refined by the Rayleigh
+      // quotient φᵀKφ / φᵀBφ (more accurate than 1/θ when θ is small).
+      const phi = r.massVectors.slice(j * n, (j + 1) * n);
+      const mu = r.eigenvalues[j];
+      if (mu > 0 && Number.isFinite(mu)) pos.push({ mu: rayleigh(K, B, phi), phi });
+    }
+    pos.sort((a, b) => a.mu - b.mu);
+    if (pos.length < count) {
+      if (r.exhausted) throw tooFew(count, pos.length);
+      if (!r.converged) {
+        throw new VerificationError(`the Lanczos iteration did not converge for ${want} buckling pair(s); try method "dense" or a larger tolerance`, `bucklingModes[${pos.length}]`);
       }
-      // Rayleigh quotients may reorder nearly equal factors: sort pairs ascending.
-      const order = Array.from({ length: count }, (_, c) => c).sort((a, b) => factors[a] - factors[b] || a - b);
-      const sf = Float64Array.from(order, (c) => factors[c]);
-      const ss = new Float64Array(n * count);
-      order.forEach((c, k) => ss.set(shapes.subarray(c * n, (c + 1) * n), k * n));
-      return { factors: sf, shapes: ss, rounds, steps };
+      want = Math.max(2 * want, count - pos.length);
+      continue;
     }
-    if (r.exhausted || want >= n - 1) throw tooFew(count, positive.length);
-    if (!r.converged) {
-      throw new VerificationError(`the Lanczos iteration did not converge for ${want} buckling pair(s); try method "dense" or a larger tolerance`, `bucklingModes[${positive.length}]`);
-    }
-    want = Math.min(n - 1, Math.max(2 * want, want + (count - positive.length)));
+    if (!sturmOf) break;
+    const all = Float64Array.from(pos, (q) => q.mu);
+    sturm = sturmOf(all, count);
+    if (sturm.passed || rounds >= BUCKLING_MAX_ROUNDS || r.exhausted) break;
+    const computed = sturm.returnedBelow + (sturm.extraBelow ?? 0);
+    const missing = sturm.countBelow - computed;
+    if (missing <= 0) break; // more computed than counted: verification reports it
+    want = missing;
   }
+  const factors = Float64Array.from(pos.slice(0, count), (q) => q.mu);
+  const shapes = new Float64Array(n * count);
+  pos.slice(0, count).forEach((q, c) => shapes.set(q.phi, c * n));
+  return { factors, shapes, rounds, steps, ...(sturm ? { sturm } : {}) };
 }
 
 function rayleigh(K: SymmetricCsc, B: SymmetricCsc, x: Float64Array): number {

@@ -31,3 +31,15 @@ export {
   transientResponse, historyValue, TRANSIENT_DEFAULTS,
   type TransientOptions, type TransientResult, type TransientLoad, type LoadHistory, type TransientMethod, type DofTransientResponse,
 } from './transient';
+export {
+  bucklingAnalysis, nodalLoadVector, axialForces, BUCKLING_DEFAULTS, BUCKLING_DENSE_LIMIT, BUCKLING_RESIDUAL_LIMIT, BUCKLING_MAX_ROUNDS, AXIAL_NOISE,
+  type NodalLoad, type LoadCase, type BucklingOptions, type BucklingResult,
+} from './buckling';
+export {
+  eigenvalueSensitivity, groupSensitivity, rankMembers, resolveGroup, elementMatrices, REPEATED_GAP,
+  type MemberGroup, type ElementMatrices, type ElementSensitivity, type ModeSensitivity, type SensitivityOptions, type ResolvedGroup, type GroupSensitivity, type RankBy,
+} from './sensitivity';
+export {
+  whatIf, scaledModel, whatIfSymbolic, stiffnessScaleFor, STIFFNESS_TARGET_DEFAULTS,
+  type DesignChange, type ResolvedChange, type WhatIfOptions, type ModeShift, type WhatIfResult, type StiffnessTargetOptions, type StiffnessTargetResult,
+} from './whatif';
