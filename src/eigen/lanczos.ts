@@ -145,7 +145,9 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     for (let c = 0; c < L; c++) mass.apply(V.subarray(c * n, (c + 1) * n), MV.subarray(c * n, (c + 1) * n));
   }
 
-  const col = (a: Float64Array, c: number): Float64Array => a.subarray(c * n, (c + 1) * n);
+  // Column views, made once so that the Lanczos steps allocate nothing.
+  const vCol = Array.from({ length: cols }, (_, c) => V.subarray(c * n, (c + 1) * n));
+  const mvCol = Array.from({ length: cols }, (_, c) => MV.subarray(c * n, (c + 1) * n));
   const checkAbort = (): void => {
     if (o.signal?.aborted) throw new AbortedError('the eigen solve was aborted through its AbortSignal; run it again without aborting to get the modes', 'signal');
   };
@@ -154,7 +156,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
    * Orthogonalizes w (in place) twice against basis columns [0, upto) in the M-inner product.
    * Returns the summed coefficient of column `track` (or 0 when track < 0).
    */
-  let projectedSquare = 0; // Σ h² of the first pass: ‖w‖²_M minus its part outside the basis
+  let projectedSquare = 0; // Σ h² of the first pass: the part of ‖w‖²_M inside the basis
   const reorthogonalize = (upto: number, track: number): number => {
     let tracked = 0;
     for (let pass = 0; pass < 2; pass++) {
@@ -175,11 +177,16 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
    * (its M-norm collapsed under orthogonalization three times in a row).
    */
   const newStartVector = (c: number): boolean => {
-    const z = col(MV, c);
+    const z = mvCol[c];
+    const v = vCol[c];
     for (let attempt = 0; attempt < 3; attempt++) {
-      rng.fill(z);
-      mass.apply(z, col(V, c));
-      inverse.apply(col(V, c), w);
+      // Orthogonalize the random vector before applying OP: its image then carries no large
+      // component along basis eigenvectors with huge θ (shift next to an eigenvalue), so the
+      // collapse test below measures only what is genuinely new.
+      rng.fill(w);
+      reorthogonalize(c, -1);
+      mass.apply(w, v);
+      inverse.apply(v, w);
       steps++;
       mass.apply(w, z);
       let before = 0;
@@ -190,7 +197,6 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       for (let i = 0; i < n; i++) after += w[i] * z[i];
       if (before > 0 && after > 1e-20 * before) {
         const inv = 1 / Math.sqrt(after);
-        const v = col(V, c);
         for (let i = 0; i < n; i++) {
           v[i] = w[i] * inv;
           z[i] *= inv;
@@ -216,20 +222,20 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     m = ncv;
     for (let j = k; j < ncv; j++) {
       checkAbort();
-      inverse.apply(col(MV, L + j), w); // w = OP v_j = (K − σM)⁻¹ M v_j
+      inverse.apply(mvCol[L + j], w); // w = OP v_j = (K − σM)⁻¹ M v_j
       steps++;
       T[j * ncv + j] = reorthogonalize(L + j + 1, L + j);
-      const z = col(MV, L + j + 1);
+      const z = mvCol[L + j + 1];
       mass.apply(w, z);
       let bb = 0;
       for (let i = 0; i < n; i++) bb += w[i] * z[i];
       let beta = Math.sqrt(Math.max(bb, 0));
-      // ‖OP v_j‖_M ≈ √(Σh² + β²); an invariant subspace shows as β ≪ that norm.
-      const opNorm = Math.sqrt(projectedSquare + beta * beta);
-      const v = col(V, L + j + 1);
-      if (beta <= 1e-12 * opNorm || beta === 0) {
+      // ‖OP v_j‖_M ≈ √(Σh² + β²); an invariant subspace shows as β ≪ that norm. The new
+      // vector is then drawn afresh (in the range of OP) and the coupling set to zero.
+      if (beta <= 1e-12 * Math.sqrt(projectedSquare + bb)) beta = 0;
+      const v = vCol[L + j + 1];
+      if (beta === 0) {
         // Invariant subspace: continue with a fresh start vector, coupling zero.
-        beta = 0;
         if (!newStartVector(L + j + 1)) {
           exhausted = true;
           m = j + 1;
@@ -317,8 +323,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   }
   const vectors = V.slice(L * n, (L + p) * n);
   const massVectors = MV.slice(L * n, (L + p) * n);
-  const vm = col(V, L + m);
-  const mvm = col(MV, L + m);
+  const vm = vCol[L + m];
+  const mvm = mvCol[L + m];
   for (let c = 0; c < p; c++) {
     const i = accepted[c];
     const x = vectors.subarray(c * n, (c + 1) * n);

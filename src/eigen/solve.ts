@@ -9,14 +9,14 @@
  * was missed; when one was (the second copy of a repeated eigenvalue), run again from a new
  * start vector kept M-orthogonal to the modes already found, until the counts agree.
  */
-import { ArgumentError, VerificationError } from '../errors';
+import { AbortedError, ArgumentError, FactorizationError, VerificationError } from '../errors';
 import type { OrderingName, SymbolicFactor } from '../linalg/ldlt/types';
 import type { SymmetricCsc } from '../linalg/sparse/symmetric';
 import { assertAccepted } from './accept';
 import { denseEigen } from './dense/index';
 import { lanczos, type ProgressCallback } from './lanczos';
 import { inverseOperator, matrixOperator, type BlockOperator } from './operators';
-import { ShiftedPencil } from './pencil';
+import { SHIFT_NUDGE, ShiftedPencil } from './pencil';
 import { rayleighRitz } from './ritz';
 import { sturmCheck } from './sturm';
 import { subspaceIteration } from './subspace';
@@ -40,6 +40,16 @@ export const DENSE_CROSSOVER = 150;
  * have the largest θ = 1/(λ − σ) and come out first, with λ ≈ 0 (possibly a tiny negative number).
  */
 export const FREE_SHIFT = 1e-6;
+
+/**
+ * Smallest pivot of K (relative to its largest diagonal entry) for which the lowest modes are
+ * sought with σ = 0; below it K is treated as singular and σ = −FREE_SHIFT · trace(K)/trace(M)
+ * is used instead. Measured: supported 3D frame towers and truss footbridges give 2.5e-3…5.3e-3;
+ * free-free frames and chains have a pivot below the factorization's own 1e-13 tolerance. The
+ * margin guards against a singular K whose zero pivot round-off left just above that tolerance,
+ * which would give the rigid-body modes θ ≈ 1e12… and drown the flexible ones in cancellation.
+ */
+export const ZERO_SHIFT_PIVOT_RATIO = 1e-10;
 
 /** Sturm/rerun rounds before a missed mode is reported as a VerificationError. */
 export const MAX_ROUNDS = 8;
@@ -138,11 +148,16 @@ export function solve(K: SymmetricCsc, M: SymmetricCsc, options: SolveOptions = 
   const given = Object.fromEntries(Object.entries(options).filter(([, v]) => v !== undefined)) as SolveOptions;
   const o: Resolved = { ...SOLVE_DEFAULTS, ...given };
   validate(K, M, o);
+  checkAbort(o);
   const n = K.n;
   const method: Exclude<SolveMethod, 'auto' | 'dense'> =
     o.method === 'auto' ? (n <= DENSE_CROSSOVER ? 'cholesky' : 'lanczos') : o.method === 'dense' ? 'cholesky' : o.method;
   if (method === 'cholesky' || method === 'jacobi') return solveDense(K, M, o, method, t0);
   return solveSparse(K, M, o, method, t0);
+}
+
+function checkAbort(o: SolveOptions): void {
+  if (o.signal?.aborted) throw new AbortedError('the eigen solve was aborted through its AbortSignal; run it again without aborting to get the modes', 'signal');
 }
 
 type Resolved = SolveOptions & {
@@ -218,7 +233,7 @@ function solveDense(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'chol
   const tv = performance.now();
   let sturm: SturmCheck | undefined;
   let pencil: ShiftedPencil | undefined;
-  if (o.verify && m > 0) {
+  if (o.verify && (m > 0 || o.range)) {
     pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
     if (o.range) sturm = rangeCheck(pencil, o.range, m);
     else sturm = sturmCheck(pencil, all.eigenvalues, m, first, { window: o.near !== undefined, minimumGap: 1e-9 * pencil.typicalEigenvalue });
@@ -288,6 +303,8 @@ interface Run {
 
 function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lanczos' | 'subspace', t0: number): EigenResult {
   const n = K.n;
+  const massive = massiveDofs(M);
+  if (!o.range && o.count > massive) throw countError(o.count, massive, n);
   o.onProgress?.('analyse', 0);
   const pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
   o.onProgress?.('analyse', 1);
@@ -307,7 +324,6 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
     rounds: 0,
     seed: o.seed,
   };
-  const massive = massiveDofs(M);
   let values: Float64Array;
   let vectors: Float64Array;
   let sturm: SturmCheck | undefined;
@@ -315,7 +331,6 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
   if (o.range) {
     ({ values, vectors, sturm, shiftUsed } = solveRange(run, o.range));
   } else {
-    if (o.count > massive) throw countError(o.count, massive, n);
     ({ values, vectors, sturm, shiftUsed } = o.near !== undefined ? solveNear(run, o.near, o.count) : solveLowest(run, o.count));
   }
   const tv = performance.now();
@@ -340,7 +355,7 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
       operatorApplications: run.applications,
       factorizations: pencil.factorizations,
       rounds: run.rounds,
-      shift: shiftUsed,
+      ...(Number.isFinite(shiftUsed) ? { shift: shiftUsed } : {}),
       nnzL: pencil.symbolic.nnzL,
       analyseMs: pencil.msAnalyse,
       factorizeMs: pencil.msFactorize - run.sturmFactorizeMs,
@@ -363,15 +378,24 @@ interface Found {
  * then extended and Rayleigh–Ritz'd with K and M (ritz.ts), which leaves it ascending and
  * M-orthonormal. Returns whether the Krylov space was exhausted.
  */
-function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: number): boolean {
+function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: number, fixed?: { x: Float64Array; m: number }): boolean {
   const n = run.pencil.n;
   const o = run.o;
   const t = performance.now();
+  // Locked for the iteration: the fixed vectors (another window's modes), then the pool.
+  let lockedCount = pool.m;
+  let locked = pool.x;
+  if (fixed && fixed.m > 0) {
+    lockedCount = fixed.m + pool.m;
+    locked = new Float64Array(n * lockedCount);
+    locked.set(fixed.x.subarray(0, n * fixed.m));
+    locked.set(pool.x.subarray(0, n * pool.m), n * fixed.m);
+  }
   const common = {
     count: want,
     shift: sigma,
     seed: run.seed + run.rounds,
-    ...(pool.m > 0 ? { locked: pool.x, lockedCount: pool.m } : {}),
+    ...(lockedCount > 0 ? { locked, lockedCount } : {}),
     ...(o.onProgress ? { onProgress: o.onProgress } : {}),
     ...(o.signal ? { signal: o.signal } : {}),
     ...(o.tolerance !== undefined ? { tolerance: o.tolerance } : {}),
@@ -381,6 +405,7 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
   let newMX: Float64Array;
   let exhausted = false;
   let converged: boolean;
+  let convergedCount: number;
   if (run.method === 'lanczos') {
     const r = lanczos(inv, run.mop, common);
     run.iterations += r.steps;
@@ -390,6 +415,7 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
     newMX = r.massVectors;
     exhausted = r.exhausted;
     converged = r.converged;
+    convergedCount = r.eigenvalues.length;
   } else {
     const r = subspaceIteration(inv, run.mop, run.kop, { ...common, normK: run.normK });
     run.iterations += r.iterations;
@@ -397,12 +423,13 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
     newX = r.vectors;
     newMX = r.massVectors;
     converged = r.converged;
+    convergedCount = r.convergedCount;
   }
   run.iterationMs += performance.now() - t;
   if (!converged && !exhausted) {
     throw new VerificationError(
-      `the ${run.method} iteration did not converge for all ${want} wanted mode(s) near σ = ${sigma} rad²/s² (${newValues.length} converged); try the other method, another shift or a larger tolerance`,
-      `modes[${pool.m + newValues.length}]`,
+      `the ${run.method} iteration did not converge for all ${want} wanted mode(s) near σ = ${sigma} rad²/s² (${convergedCount} converged); try the other method, another shift or a larger tolerance`,
+      `modes[${pool.m + Math.min(convergedCount, want - 1)}]`,
     );
   }
   // ---- merge and Rayleigh–Ritz over the pool ----
@@ -431,10 +458,16 @@ function emptyPool(): Pool {
   return { m: 0, values: new Float64Array(0), x: new Float64Array(0), mx: new Float64Array(0) };
 }
 
-function operatorsAt(run: Run, sigma: number, direction: 1 | -1, attempts?: number): { inv: BlockOperator; shift: number; negative: number } {
+function operatorsAt(
+  run: Run,
+  sigma: number,
+  direction: 1 | -1,
+  attempts?: number,
+): { inv: BlockOperator; shift: number; negative: number; minPivotRatio: number } {
   run.o.onProgress?.('factorize', 0);
   const f = run.pencil.factorAt(sigma, direction, attempts);
   run.o.onProgress?.('factorize', 1);
+  checkAbort(run.o);
   const inv = inverseOperator(f.factor);
   const counted: BlockOperator = {
     n: inv.n,
@@ -450,7 +483,26 @@ function operatorsAt(run: Run, sigma: number, direction: 1 | -1, attempts?: numb
       run.applications += k;
     },
   };
-  return { inv: counted, shift: f.shift, negative: f.factor.negativePivots };
+  return { inv: counted, shift: f.shift, negative: f.factor.negativePivots, minPivotRatio: f.factor.minPivotRatio };
+}
+
+function shortOfModes(run: Run, found: number, count: number): VerificationError {
+  return new VerificationError(
+    `only ${found} of ${count} modes converged after ${run.rounds} rerun(s) of ${run.method}; try the other method or another shift`,
+    `modes[${found}]`,
+  );
+}
+
+/**
+ * Operators at an interior shift (near a target, or a window's centre). A shift within
+ * ZERO_SHIFT_PIVOT_RATIO (relative pivot) of an eigenvalue is moved up by SHIFT_NUDGE ·
+ * max(|σ|, typical λ): an eigenvalue sitting almost on σ would get θ ≈ 1e13 and leave the
+ * subspace iteration's projected mass matrix numerically singular.
+ */
+function interiorOperators(run: Run, sigma: number): ReturnType<typeof operatorsAt> {
+  const op = operatorsAt(run, sigma, 1);
+  if (op.minPivotRatio >= ZERO_SHIFT_PIVOT_RATIO) return op;
+  return operatorsAt(run, op.shift + SHIFT_NUDGE * Math.max(Math.abs(op.shift), run.pencil.typicalEigenvalue), 1);
 }
 
 /** Runs a Sturm check, booking its time (factorizations included) to the verify phase. */
@@ -466,14 +518,16 @@ function timedSturm(run: Run, check: () => SturmCheck): SturmCheck {
 /** Lowest `count` modes from a shift at or below the bottom of the spectrum. */
 function solveLowest(run: Run, count: number): Found {
   const { pencil, o } = run;
-  let op: { inv: BlockOperator; shift: number; negative: number } | undefined;
+  let op: ReturnType<typeof operatorsAt> | undefined;
   if (o.shift !== undefined) op = operatorsAt(run, o.shift, -1);
   else {
-    // σ = 0 when K is positive definite (zero negative pivots, no vanishing pivot) …
+    // σ = 0 when K is clearly positive definite: no negative pivot and none smaller than
+    // ZERO_SHIFT_PIVOT_RATIO times the largest diagonal …
     try {
       op = operatorsAt(run, 0, -1, 1);
-      if (op.negative > 0) op = undefined;
-    } catch {
+      if (op.negative > 0 || op.minPivotRatio < ZERO_SHIFT_PIVOT_RATIO) op = undefined;
+    } catch (e) {
+      if (!(e instanceof FactorizationError)) throw e;
       op = undefined;
     }
     // … else a small negative shift (free-free: rigid-body modes at λ ≈ 0), moved down until no
@@ -509,13 +563,14 @@ function solveLowest(run: Run, count: number): Found {
     run.rounds++;
     want = missing;
   }
+  if (pool.m < count) throw shortOfModes(run, pool.m, count);
   return { values: pool.values.slice(0, count), vectors: pool.x.slice(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
 }
 
 /** The `count` modes nearest a target. */
 function solveNear(run: Run, target: number, count: number): Found {
   const { pencil, o } = run;
-  const { inv, shift } = operatorsAt(run, o.shift ?? target, 1);
+  const { inv, shift } = interiorOperators(run, o.shift ?? target);
   const pool = emptyPool();
   let want = count;
   let sturm: SturmCheck | undefined;
@@ -539,6 +594,7 @@ function solveNear(run: Run, target: number, count: number): Found {
     run.rounds++;
     want = missing;
   }
+  if (pool.m < count) throw shortOfModes(run, pool.m, count);
   const n = pencil.n;
   return { values: pool.values.slice(first, first + count), vectors: pool.x.slice(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
 }
@@ -582,20 +638,34 @@ function solveRange(run: Run, range: readonly [number, number]): Found {
       }
     }
     const center = run.o.shift !== undefined && run.o.shift > a && run.o.shift < b ? run.o.shift : 0.5 * (a + b);
-    const { inv, shift } = operatorsAt(run, center, 1);
+    const { inv, shift } = interiorOperators(run, center);
     lastShift = shift;
     const pool = emptyPool();
     let want = k;
     let inside = 0;
     let from = 0;
-    for (;;) {
-      const exhausted = extend(run, pool, inv, shift, want);
+    // The lower windows' modes stay locked, so every window's modes come out M-orthogonal to
+    // theirs (with a loose residual, as subspace iteration's 1e-11, two windows' modes are
+    // otherwise only orthogonal to about residual · ‖K‖ / gap).
+    let fixed: { x: Float64Array; m: number } | undefined;
+    if (parts.length > 0) {
+      const m = parts.reduce((s2, p2) => s2 + p2.values.length, 0);
+      const x = new Float64Array(n * m);
+      let c = 0;
+      for (const p2 of parts) {
+        x.set(p2.vectors, c * n);
+        c += p2.values.length;
+      }
+      fixed = { x, m };
+    }
+    for (let rounds = 0; ; rounds++) {
+      const exhausted = extend(run, pool, inv, shift, want, fixed);
       from = 0;
       while (from < pool.m && pool.values[from] < a) from++;
       let to = from;
       while (to < pool.m && pool.values[to] < b) to++;
       inside = to - from;
-      if (inside >= k || exhausted || run.rounds >= MAX_ROUNDS) break;
+      if (inside >= k || exhausted || rounds >= MAX_ROUNDS) break;
       run.rounds++;
       want = k - inside;
     }

@@ -62,6 +62,8 @@ export interface SubspaceResult {
   readonly residuals: Float64Array;
   /** True when all `count` wanted pairs converged (or stagnated at round-off within 100 × tolerance). */
   readonly converged: boolean;
+  /** Wanted pairs whose residual met the tolerance in the last iteration. */
+  readonly convergedCount: number;
   /** Iterations done. */
   readonly iterations: number;
 }
@@ -191,5 +193,5 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
     vectors.set(X.subarray(s * n, (s + 1) * n), c * n);
     massVectors.set(MX.subarray(s * n, (s + 1) * n), c * n);
   }
-  return { eigenvalues, vectors, massVectors, residuals, converged: nconv === p || stagnated, iterations };
+  return { eigenvalues, vectors, massVectors, residuals, converged: nconv === p || stagnated, convergedCount: nconv, iterations };
 }

@@ -4,8 +4,9 @@
  *
  *   K* = K_mm − K_m0 K_00⁻¹ K_0m,   K* x_m = λ M_mm x_m,   x_0 = −K_00⁻¹ K_0m x_m.
  *
- * A DOF is massless when its row (and column) of M is exactly zero. The eigenvalues of those
- * DOFs are infinite and are never returned.
+ * A DOF is massless when its diagonal mass is zero and its row of M is zero up to underflow
+ * (|M_ij| ≤ ε · max diagonal). The eigenvalues of those DOFs are infinite and are never
+ * returned. A singular M without such rows is handled by nullmass.ts.
  */
 import { FactorizationError } from '../../errors';
 import type { DenseSymmetric } from './input';
@@ -42,6 +43,13 @@ export function condenseMassless(K: DenseSymmetric, M: DenseSymmetric): Condense
   const kd = K.data;
   const md = M.data;
   // ---- classify DOFs ----
+  // A coupling below ε · max diagonal next to a zero diagonal is underflow, not mass: the
+  // global lumped torsional inertia ρIₚL/2 · x xᵀ of a member whose direction x has a component
+  // near 1e-162 gets x_z² = 0 but x_y·x_z ≠ 0. Such a DOF is massless (the neglected entry
+  // changes M by less than round-off).
+  let diagMax = 0;
+  for (let i = 0; i < n; i++) diagMax = Math.max(diagMax, md[i * n + i]);
+  const negligible = Number.EPSILON * diagMax;
   const isMassless = new Uint8Array(n);
   let n0 = 0;
   for (let i = 0; i < n; i++) {
@@ -56,7 +64,7 @@ export function condenseMassless(K: DenseSymmetric, M: DenseSymmetric): Condense
       }
     }
     const mii = md[row + i];
-    if (mii === 0 && offMax === 0) {
+    if (mii === 0 && offMax <= negligible) {
       isMassless[i] = 1;
       n0++;
     } else if (mii < 0) {

@@ -2,19 +2,21 @@
  * Dense generalized symmetric eigensolvers for K x = λ M x (small problems, references, and the
  * projected problems of the iterative solvers).
  */
-import { ArgumentError, VerificationError } from '../../errors';
+import { ArgumentError, FactorizationError, VerificationError } from '../../errors';
 import type { EigenResult } from '../types';
-import { fromDenseArray, type SymmetricCsc } from '../../linalg/sparse/symmetric';
+import { fromDenseArray, symmetricMultiply, type SymmetricCsc } from '../../linalg/sparse/symmetric';
 import { orthogonalityError, residuals, matrixNorm1 } from '../verify';
-import { choleskyRoute, type DensePairs } from './cholesky';
+import { choleskyInPlace, choleskyRoute, type DensePairs } from './cholesky';
 import { condenseMassless, expandModes } from './condense';
 import { toDenseSymmetric, type DenseEigenInput } from './input';
 import { generalizedJacobi, JACOBI_DEFAULTS } from './jacobi';
+import { reduceNullMass, type NullMassReduction } from './nullmass';
 
 export type { DenseEigenInput, DenseSymmetric } from './input';
 export { generalizedJacobi, JACOBI_DEFAULTS, type JacobiOptions } from './jacobi';
 export { choleskyRoute, type DensePairs } from './cholesky';
 export { condenseMassless, expandModes, type Condensed } from './condense';
+export { reduceNullMass, NULL_MASS_TOLERANCE, type NullMassReduction } from './nullmass';
 export { symmetricEigen, type SymmetricEigenResult } from './symmetric';
 export { toDenseSymmetric } from './input';
 
@@ -103,22 +105,28 @@ export function denseEigen(K: DenseEigenInput, M: DenseEigenInput, options: Dens
   // ---- condense massless DOFs ----
   let t0 = performance.now();
   const c = condenseMassless(k, m);
-  const msCondense = performance.now() - t0;
   const nm = c.massive.length;
-  const count = options.count ?? nm;
-  if (!Number.isInteger(count) || count < (options.count === undefined ? 0 : 1) || count > nm) {
+  // A singular M without zero rows (e.g. the lumped torsional inertia of skew space members):
+  // condense its null space too (nullmass.ts). Tried only when M_mm is not positive definite.
+  let reduction: NullMassReduction | null = null;
+  if (nm > 0 && !positiveDefinite(nm, c.m, c.massive)) reduction = reduceNullMass(nm, c.k, c.m, c.massive);
+  const msCondense = performance.now() - t0;
+  const finite = reduction ? reduction.r : nm;
+  const count = options.count ?? finite;
+  if (!Number.isInteger(count) || count < (options.count === undefined ? 0 : 1) || count > finite) {
     throw new ArgumentError(
-      `count is ${count} but the problem has ${nm} finite modes (${n} DOFs, ${n - nm} massless); pass an integer from 1 to ${nm}`,
+      `count is ${count} but the problem has ${finite} finite modes (${n} DOFs, ${n - finite} massless DOFs or directions); pass an integer from 1 to ${finite}`,
       'count',
     );
   }
 
   // ---- solve the reduced problem ----
+  const [kr, mr, dofOf] = reduction ? [reduction.k, reduction.m, reduction.dofOf] : [c.k, c.m, c.massive];
   const pairs: DensePairs =
     opts.method === 'jacobi'
-      ? generalizedJacobi(nm, c.k, c.m, count, c.massive, { tolerance: opts.tolerance, maxSweeps: opts.maxSweeps })
-      : choleskyRoute(nm, c.k, c.m, count, c.massive);
-  const vectors = expandModes(c, pairs.vectors, count);
+      ? generalizedJacobi(finite, kr, mr, count, dofOf, { tolerance: opts.tolerance, maxSweeps: opts.maxSweeps })
+      : choleskyRoute(finite, kr, mr, count, dofOf);
+  const vectors = expandModes(c, reduction ? reduction.expand(pairs.vectors, count) : pairs.vectors, count);
 
   // ---- verify on the full K and M ----
   // Checks run on sparse copies (exact zeros dropped): O(count · nnz) instead of O(count · n²)
@@ -127,6 +135,7 @@ export function denseEigen(K: DenseEigenInput, M: DenseEigenInput, options: Dens
   const kCheck: SymmetricCsc = isCsc(K) ? K : fromDenseArray(n, k.data);
   const mCheck: SymmetricCsc = isCsc(M) ? M : fromDenseArray(n, m.data);
   const normK = matrixNorm1(kCheck);
+  rayleighQuotients(kCheck, mCheck, pairs.values, vectors, count);
   const res = residuals(kCheck, mCheck, pairs.values, vectors, normK);
   const orth = orthogonalityError(mCheck, vectors, count);
   const msVerify = performance.now() - t0;
@@ -151,6 +160,59 @@ export function denseEigen(K: DenseEigenInput, M: DenseEigenInput, options: Dens
     residuals: res,
     orthogonalityError: orth,
     method: opts.method,
-    stats: { ...pairs.stats, masslessDofs: n - nm, normK, msCondense, msVerify, msTotal: performance.now() - tStart },
+    stats: { ...pairs.stats, masslessDofs: n - nm, masslessDirections: nm - finite, normK, msCondense, msVerify, msTotal: performance.now() - tStart },
   };
+}
+
+/** Whether the row-major n × n symmetric m passes the Cholesky pivot test (cholesky.ts). */
+function positiveDefinite(n: number, m: Float64Array, dofOf: Int32Array): boolean {
+  try {
+    choleskyInPlace(n, new Float64Array(m), dofOf);
+    return true;
+  } catch (e) {
+    if (e instanceof FactorizationError) return false;
+    throw e;
+  }
+}
+
+/**
+ * Replaces each eigenvalue by the Rayleigh quotient xᵀKx / xᵀMx of its computed vector, on the
+ * full K and M, then restores ascending order (vectors moved along).
+ *
+ * Why: the Cholesky reduction computes λ with an absolute error of order ε·λ_max (Golub & Van
+ * Loan, 4th ed., §8.7.2: the error grows with ‖L⁻¹‖², i.e. with the spread of M), which for a
+ * lumped mass with small rotary inertias is a relative error of ~1e-8 on the lowest modes even
+ * though the residual passes. The Rayleigh quotient's error is quadratic in the vector's error
+ * (Parlett, The Symmetric Eigenvalue Problem, §4.6; from memory), so it brings the low
+ * eigenvalues back to round-off of ‖K‖‖x‖² — where the Jacobi route and the sparse solvers
+ * already are.
+ * @param values - eigenvalues, length count, rad²/s² (overwritten)
+ * @param vectors - M-orthonormal modes, column-major n × count (reordered when values swap)
+ */
+function rayleighQuotients(K: SymmetricCsc, M: SymmetricCsc, values: Float64Array, vectors: Float64Array, count: number): void {
+  const n = K.n;
+  const kx = new Float64Array(n);
+  const mx = new Float64Array(n);
+  let sorted = true;
+  for (let j = 0; j < count; j++) {
+    const x = vectors.subarray(j * n, (j + 1) * n);
+    symmetricMultiply(K, x, kx);
+    symmetricMultiply(M, x, mx);
+    let xkx = 0;
+    let xmx = 0;
+    for (let i = 0; i < n; i++) {
+      xkx += x[i] * kx[i];
+      xmx += x[i] * mx[i];
+    }
+    if (xmx > 0 && Number.isFinite(xkx)) values[j] = xkx / xmx;
+    if (j > 0 && values[j] < values[j - 1]) sorted = false;
+  }
+  if (sorted) return;
+  const order = Array.from({ length: count }, (_, j) => j).sort((a, b) => values[a] - values[b] || a - b);
+  const v = values.slice(0, count);
+  const x = vectors.slice(0, count * n);
+  for (let j = 0; j < count; j++) {
+    values[j] = v[order[j]];
+    vectors.set(x.subarray(order[j] * n, (order[j] + 1) * n), j * n);
+  }
 }
