@@ -19,4 +19,16 @@ export default defineConfig([
     target: 'node20',
     splitting: false,
   },
+  {
+    // Node-only entry `eigenframe/node` (worker-thread batch) and its worker script.
+    entry: { node: 'src/node/index.ts', 'batch-worker': 'src/node/batch-worker.ts' },
+    format: ['esm', 'cjs'],
+    dts: { entry: { node: 'src/node/index.ts' } },
+    sourcemap: true,
+    clean: false,
+    target: 'node20',
+    platform: 'node',
+    splitting: false,
+    shims: true,
+  },
 ]);
