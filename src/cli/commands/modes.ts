@@ -7,12 +7,13 @@ import type { CommandSpec, ParsedArgs } from '../args';
 import { readText, writeFilesAtomically } from '../files';
 import { parseModel } from '../../model/read';
 import { modalAnalysis } from '../../modal/analysis';
-import { solve } from '../../eigen/solve';
+import { solve, type SolveMethod, type SolveOptions } from '../../eigen/solve';
 import { readMatrixMarket } from '../../io/matrix-market';
 import { formatModesText, formatMatrixModesText } from '../../io/report-text';
 import { modesJsonObject, matrixModesJsonObject } from '../../io/report-json';
 import type { CommandOutput } from '../output';
 import { frequencyRequest } from '../requests';
+import { createProgress } from '../progress';
 
 export const MODES_SPEC: CommandSpec = {
   name: 'modes',
@@ -61,30 +62,45 @@ export function runModes(args: ParsedArgs): CommandOutput {
   const methods = ['auto', 'dense', 'jacobi', 'cholesky', 'lanczos', 'subspace'];
   if (!methods.includes(method)) throw new ArgumentError(`"${method}" is not a method; use one of ${methods.join(', ')}`, '--method');
 
+  // A progress line on a terminal's stderr only; Ctrl-C ends the process at once (signals: null)
+  // and the atomic writes of files.ts leave no partial output.
+  const progress = createProgress(process.stderr, { signals: null });
+  const solverOptions = { ...request, method: method as SolveMethod, onProgress: progress.onProgress };
   let text: string;
-  if (matrixMode) {
-    if (o.stiffness === undefined) throw new ArgumentError('--mass needs --stiffness K.mtx as well', '--stiffness');
-    if (o.mass === undefined) throw new ArgumentError('--stiffness needs --mass M.mtx as well', '--mass');
-    if (o.lumped) throw new ArgumentError('applies to model files only; a Matrix Market mass is used as given', '--lumped');
-    const kPath = String(o.stiffness);
-    const mPath = String(o.mass);
-    const K = readMatrixMarket(readText(kPath, 'stiffness matrix file'), kPath);
-    const M = readMatrixMarket(readText(mPath, 'mass matrix file'), mPath);
-    if (K.n !== M.n) {
-      throw new ArgumentError(`is ${M.n} × ${M.n} but the stiffness matrix is ${K.n} × ${K.n}; give K and M of the same size`, mPath);
-    }
-    const eigen = solve(K, M, { ...request, method: method as never });
-    text = o.json ? JSON.stringify(matrixModesJsonObject(eigen), null, 2) + '\n' : formatMatrixModesText(eigen);
-  } else {
-    const path = String(modelPath);
-    const model = parseModel(readText(path, 'model file'), path);
-    if (o.lumped) model.mass = 'lumped';
-    const result = modalAnalysis(model, { ...request, method: method as never });
-    text = o.json ? JSON.stringify(modesJsonObject(result, { shapes: Boolean(o.shapes) }), null, 2) + '\n' : formatModesText(result);
+  try {
+    text = matrixMode ? matrixReport(o, solverOptions) : modelReport(String(modelPath), o, solverOptions);
+  } finally {
+    progress.done();
   }
   if (o.output !== undefined) {
     writeFilesAtomically([{ path: String(o.output), content: text }]);
     return { stdout: '', stderr: `eigenframe: report written to ${String(o.output)}\n` };
   }
   return { stdout: text, stderr: '' };
+}
+
+type Options = ParsedArgs['options'];
+
+/** Report of a user's own K, M pair. */
+function matrixReport(o: Options, solverOptions: SolveOptions): string {
+  if (o.stiffness === undefined) throw new ArgumentError('--mass needs --stiffness K.mtx as well', '--stiffness');
+  if (o.mass === undefined) throw new ArgumentError('--stiffness needs --mass M.mtx as well', '--mass');
+  if (o.lumped) throw new ArgumentError('applies to model files only; a Matrix Market mass is used as given', '--lumped');
+  const kPath = String(o.stiffness);
+  const mPath = String(o.mass);
+  const K = readMatrixMarket(readText(kPath, 'stiffness matrix file'), kPath);
+  const M = readMatrixMarket(readText(mPath, 'mass matrix file'), mPath);
+  if (K.n !== M.n) {
+    throw new ArgumentError(`is ${M.n} × ${M.n} but the stiffness matrix is ${K.n} × ${K.n}; give K and M of the same size`, mPath);
+  }
+  const eigen = solve(K, M, solverOptions);
+  return o.json ? JSON.stringify(matrixModesJsonObject(eigen), null, 2) + '\n' : formatMatrixModesText(eigen);
+}
+
+/** Report of a model file. */
+function modelReport(path: string, o: Options, solverOptions: SolveOptions): string {
+  const model = parseModel(readText(path, 'model file'), path);
+  if (o.lumped) model.mass = 'lumped';
+  const result = modalAnalysis(model, solverOptions);
+  return o.json ? JSON.stringify(modesJsonObject(result, { shapes: Boolean(o.shapes) }), null, 2) + '\n' : formatModesText(result);
 }
