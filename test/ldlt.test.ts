@@ -4,11 +4,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { CholeskyDecomposition, EigenvalueDecomposition, LuDecomposition, Matrix } from 'ml-matrix';
-import { analyse } from '../src/linalg/ldlt/analyse';
-import { factorize } from '../src/linalg/ldlt/factorize';
+import { ANALYSE_DEFAULTS, analyse } from '../src/linalg/ldlt/analyse';
+import { FACTORIZE_DEFAULTS, factorize } from '../src/linalg/ldlt/factorize';
 import { solveStatic } from '../src/linalg/ldlt/static';
 import { ArgumentError, FactorizationError } from '../src/errors';
-import { symbolicFill } from '../src/linalg/ordering';
+import { order, symbolicFill } from '../src/linalg/ordering';
 import { CooBuilder, combineOnUnion, symmetricMultiply, unionPattern, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import { buildingFrame, randomSymmetric, rng, toRows } from './ldlt-helpers';
 
@@ -123,6 +123,73 @@ describe('sparse LDLᵀ against dense references', () => {
     }
     expect(Math.sqrt(r / nb)).toBeLessThan(1e-10);
     expect(f.negativePivots).toBe(0); // K SPD by construction (sum of SPD blocks + shift)
+  });
+});
+
+describe('supernodal paths', () => {
+  it('dense-like indefinite matrix (one wide supernode, blocked panels): solve and inertia vs ml-matrix', () => {
+    const a = randomSymmetric(150, 150, 41, false);
+    const sym = analyse(a);
+    expect(sym.supernodes).toBeLessThan(10); // fill makes it (nearly) dense: a few wide supernodes
+    const f = factorize(sym, a.values);
+    const b = randomVector(a.n, 42);
+    const x = new Float64Array(a.n);
+    f.solve(b, x);
+    // Reference: ml-matrix LuDecomposition; inertia from ml-matrix EigenvalueDecomposition.
+    expect(maxRelDiff(x, denseSolve(a, b, false))).toBeLessThan(1e-11);
+    expect(f.negativePivots).toBe(negativeEigenvalues(a).count);
+  });
+
+  it('building frame K − σM, 480 DOF, nd and amd: inertia equals ml-matrix eigenvalue count', () => {
+    const { K, M } = buildingFrame({ bx: 3, by: 3, bz: 4 }, 11);
+    const a = shifted(K, M, 0.6);
+    const ref = negativeEigenvalues(a);
+    expect(ref.count).toBeGreaterThan(0);
+    expect(ref.minAbs).toBeGreaterThan(1e-6);
+    for (const ordering of ['nd', 'amd'] as const) {
+      const f = factorize(analyse(a, { ordering }), a.values);
+      expect(f.negativePivots, ordering).toBe(ref.count);
+    }
+  });
+
+  it("'auto' measures each candidate's fill; counts agree with the ordering module's symbolicFill", () => {
+    const { K } = buildingFrame({ bx: 3, by: 3, bz: 5 }, 2);
+    const sym = analyse(K);
+    expect(sym.candidates?.length).toBeGreaterThanOrEqual(2);
+    let best = Infinity;
+    for (const c of sym.candidates ?? []) {
+      // Independent count (row-subtree traversal in src/linalg/ordering/fill.ts) of the same ordering.
+      const ref = symbolicFill(K, order(K, c.ordering as 'amd'));
+      expect(c.nnzL, c.ordering).toBe(ref.nnzL);
+      expect(c.flops, c.ordering).toBe(ref.flops);
+      best = Math.min(best, c.flops);
+    }
+    expect(sym.flops).toBe(best);
+    expect(sym.candidates?.find((c) => c.flops === best)?.ordering).toBe(sym.ordering);
+  });
+
+  it('solveMany on a frame factor equals column-by-column solve; memory is reported', () => {
+    const { K } = buildingFrame({ bx: 3, by: 4, bz: 6 }, 5);
+    const f = factorize(analyse(K, { ordering: 'nd' }), K.values);
+    const k = 3;
+    const B = randomVector(K.n * k, 6);
+    const X = new Float64Array(K.n * k);
+    f.solveMany(B, X, k);
+    for (let c = 0; c < k; c++) {
+      const x = new Float64Array(K.n);
+      f.solve(B.subarray(c * K.n, (c + 1) * K.n), x);
+      expect(Array.from(X.subarray(c * K.n, (c + 1) * K.n))).toEqual(Array.from(x));
+    }
+    expect(f.memoryBytes).toBeGreaterThan(8 * (analyse(K, { ordering: 'nd' }).nnzL + K.n));
+  });
+
+  it('solveStatic equals analyse + factorize + solve', () => {
+    const { K } = buildingFrame({ bx: 2, by: 2, bz: 5 }, 8);
+    const fvec = randomVector(K.n, 9);
+    const u = solveStatic(K, fvec);
+    const x = new Float64Array(K.n);
+    factorize(analyse(K), K.values).solve(fvec, x);
+    expect(Array.from(u)).toEqual(Array.from(x));
   });
 });
 
@@ -243,6 +310,20 @@ describe('sparse LDLᵀ contract', () => {
     const nan = a.values.slice();
     nan[5] = NaN;
     expect(() => factorize(sym, nan)).toThrowError(expect.objectContaining({ path: 'values[5]' }));
+  });
+
+  it('defaults: ordering auto, pivotTolerance 1e-13 (as documented in types.ts); undefined options take them', () => {
+    expect(ANALYSE_DEFAULTS.ordering).toBe('auto');
+    expect(FACTORIZE_DEFAULTS.pivotTolerance).toBe(1e-13);
+    const a = randomSymmetric(50, 6, 3, true);
+    expect(analyse(a, { ordering: undefined }).ordering).toBe(analyse(a).ordering);
+    // diag(1, 1e-14): the second pivot is below 1e-13·max|A_jj| → singular by default,
+    // accepted with a smaller tolerance (the pivot rule of FactorizeOptions).
+    const tiny: SymmetricCsc = { n: 2, colPtr: Int32Array.from([0, 1, 2]), rowIdx: Int32Array.from([0, 1]), values: Float64Array.from([1, 1e-14]) };
+    const sym = analyse(tiny, { ordering: 'natural' });
+    expect(() => factorize(sym, tiny.values, { pivotTolerance: undefined })).toThrowError(expect.objectContaining({ path: 'row 1' }));
+    expect(factorize(sym, tiny.values, { pivotTolerance: 1e-15 }).minPivotRatio).toBeCloseTo(1e-14, 20);
+    expect(() => factorize(sym, tiny.values, { pivotTolerance: -1 })).toThrowError(expect.objectContaining({ path: 'options.pivotTolerance' }));
   });
 
   it('symbolic facts: nnzL, flops, supernodes are consistent with the perm', () => {

@@ -273,10 +273,10 @@ export interface OrderingCandidate {
  * @throws ArgumentError when the pattern is malformed or the ordering is unknown / not a permutation
  */
 export function analyse(pattern: SymmetricCsc, options: AnalyseOptions = {}): SymbolicFactor {
-  const opts = { ...ANALYSE_DEFAULTS, ...options };
+  // An option given as undefined takes its default.
+  const ordering: OrderingName | Int32Array = options.ordering ?? ANALYSE_DEFAULTS.ordering;
   checkPattern(pattern);
   const n = pattern.n;
-  const ordering: OrderingName | Int32Array = opts.ordering;
 
   // --- Ordering ------------------------------------------------------------------------
   let perm0: Int32Array;

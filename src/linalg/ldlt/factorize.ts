@@ -7,7 +7,7 @@ import type { FactorizeOptions, LdltFactor, SymbolicFactor } from './types';
 export const FACTORIZE_DEFAULTS = { pivotTolerance: 1e-13 } as const;
 
 /** Width of the column panels inside a supernode (blocked left-looking within the supernode). */
-const PANEL = 32;
+const PANEL = 16;
 
 /**
  * Supernodal LDLᵀ factor of C = P A Pᵀ: L unit lower triangular in dense row-major supernode
@@ -73,8 +73,8 @@ class SupernodalFactor implements LdltFactor {
   }
 
   /**
-   * Y ← L⁻¹ Y (permuted numbering, k columns of length n), supernode by supernode; each block
-   * of four rows of L is read once for all k columns.
+   * Y ← L⁻¹ Y (permuted numbering, k columns of length n), supernode by supernode. Each strip of
+   * four rows of L is applied to all k columns while it is in cache.
    */
   private forward(y: Float64Array, k: number): void {
     const { n, superStart, rowPtr, rows, lxPtr, lx } = this;
@@ -85,15 +85,15 @@ class SupernodalFactor implements LdltFactor {
       const r0 = rowPtr[s];
       const nr = rowPtr[s + 1] - r0;
       const base = lxPtr[s];
-      for (let r = 0; r < k; r++) {
-        const o = r * n + f;
-        // Diagonal block: unit lower triangular solve, four rows at a time (contiguous rows).
-        let j = 0;
-        for (; j + 4 <= nc; j += 4) {
-          const a0 = base + j * nc;
-          const a1 = a0 + nc;
-          const a2 = a1 + nc;
-          const a3 = a2 + nc;
+      // Diagonal block: unit lower triangular solve, four rows at a time (contiguous rows).
+      let j = 0;
+      for (; j + 4 <= nc; j += 4) {
+        const a0 = base + j * nc;
+        const a1 = a0 + nc;
+        const a2 = a1 + nc;
+        const a3 = a2 + nc;
+        for (let r = 0; r < k; r++) {
+          const o = r * n + f;
           let t0 = y[o + j];
           let t1 = y[o + j + 1];
           let t2 = y[o + j + 2];
@@ -113,39 +113,51 @@ class SupernodalFactor implements LdltFactor {
           y[o + j + 2] = t2;
           y[o + j + 3] = t3;
         }
-        for (; j < nc; j++) {
-          const rj = base + j * nc;
+      }
+      for (; j < nc; j++) {
+        const rj = base + j * nc;
+        for (let r = 0; r < k; r++) {
+          const o = r * n + f;
           let t = y[o + j];
           for (let c = 0; c < j; c++) t -= lx[rj + c] * y[o + c];
           y[o + j] = t;
         }
       }
-      // Rows below: y_i −= L(i, :)·y_s, four rows per pass over y_s.
+      // Rows below: y_i −= L(i, :)·y_s, eight rows per pass over y_s (eight sequential streams).
       let i = nc;
-      for (; i + 4 <= nr; i += 4) {
+      for (; i + 8 <= nr; i += 8) {
         const a0 = base + i * nc;
         const a1 = a0 + nc;
         const a2 = a1 + nc;
         const a3 = a2 + nc;
-        const g0 = rows[r0 + i];
-        const g1 = rows[r0 + i + 1];
-        const g2 = rows[r0 + i + 2];
-        const g3 = rows[r0 + i + 3];
+        const a4 = a3 + nc;
+        const a5 = a4 + nc;
+        const a6 = a5 + nc;
+        const a7 = a6 + nc;
+        const g = r0 + i;
         for (let r = 0; r < k; r++) {
           const o = r * n;
           const os = o + f;
-          let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+          let t0 = 0, t1 = 0, t2 = 0, t3 = 0, t4 = 0, t5 = 0, t6 = 0, t7 = 0;
           for (let c = 0; c < nc; c++) {
             const yc = y[os + c];
             t0 += lx[a0 + c] * yc;
             t1 += lx[a1 + c] * yc;
             t2 += lx[a2 + c] * yc;
             t3 += lx[a3 + c] * yc;
+            t4 += lx[a4 + c] * yc;
+            t5 += lx[a5 + c] * yc;
+            t6 += lx[a6 + c] * yc;
+            t7 += lx[a7 + c] * yc;
           }
-          y[o + g0] -= t0;
-          y[o + g1] -= t1;
-          y[o + g2] -= t2;
-          y[o + g3] -= t3;
+          y[o + rows[g]] -= t0;
+          y[o + rows[g + 1]] -= t1;
+          y[o + rows[g + 2]] -= t2;
+          y[o + rows[g + 3]] -= t3;
+          y[o + rows[g + 4]] -= t4;
+          y[o + rows[g + 5]] -= t5;
+          y[o + rows[g + 6]] -= t6;
+          y[o + rows[g + 7]] -= t7;
         }
       }
       for (; i < nr; i++) {
@@ -162,7 +174,11 @@ class SupernodalFactor implements LdltFactor {
     }
   }
 
-  /** Y ← L⁻ᵀ Y (permuted numbering, k columns of length n), supernodes in reverse order. */
+  /**
+   * Y ← L⁻ᵀ Y (permuted numbering, k columns of length n), supernodes in reverse order. Each
+   * strip of L (eight rows below the diagonal block, four rows of it) is applied to all k
+   * columns while it is in cache.
+   */
   private backward(y: Float64Array, k: number): void {
     const { n, superStart, rowPtr, rows, lxPtr, lx } = this;
     const ns = superStart.length - 1;
@@ -172,25 +188,32 @@ class SupernodalFactor implements LdltFactor {
       const r0 = rowPtr[s];
       const nr = rowPtr[s + 1] - r0;
       const base = lxPtr[s];
-      // y_s −= L(below, :)ᵀ y_below, four rows per pass over y_s.
+      // y_s −= L(below, :)ᵀ y_below, eight rows of L per pass over y_s (eight sequential streams).
       let i = nc;
-      for (; i + 4 <= nr; i += 4) {
+      for (; i + 8 <= nr; i += 8) {
         const a0 = base + i * nc;
         const a1 = a0 + nc;
         const a2 = a1 + nc;
         const a3 = a2 + nc;
-        const g0 = rows[r0 + i];
-        const g1 = rows[r0 + i + 1];
-        const g2 = rows[r0 + i + 2];
-        const g3 = rows[r0 + i + 3];
+        const a4 = a3 + nc;
+        const a5 = a4 + nc;
+        const a6 = a5 + nc;
+        const a7 = a6 + nc;
+        const g = r0 + i;
         for (let r = 0; r < k; r++) {
           const o = r * n;
           const os = o + f;
-          const x0 = y[o + g0];
-          const x1 = y[o + g1];
-          const x2 = y[o + g2];
-          const x3 = y[o + g3];
-          for (let c = 0; c < nc; c++) y[os + c] -= lx[a0 + c] * x0 + lx[a1 + c] * x1 + lx[a2 + c] * x2 + lx[a3 + c] * x3;
+          const x0 = y[o + rows[g]];
+          const x1 = y[o + rows[g + 1]];
+          const x2 = y[o + rows[g + 2]];
+          const x3 = y[o + rows[g + 3]];
+          const x4 = y[o + rows[g + 4]];
+          const x5 = y[o + rows[g + 5]];
+          const x6 = y[o + rows[g + 6]];
+          const x7 = y[o + rows[g + 7]];
+          for (let c = 0; c < nc; c++) {
+            y[os + c] -= lx[a0 + c] * x0 + lx[a1 + c] * x1 + lx[a2 + c] * x2 + lx[a3 + c] * x3 + (lx[a4 + c] * x4 + lx[a5 + c] * x5 + lx[a6 + c] * x6 + lx[a7 + c] * x7);
+          }
         }
       }
       for (; i < nr; i++) {
@@ -203,16 +226,17 @@ class SupernodalFactor implements LdltFactor {
           for (let c = 0; c < nc; c++) y[os + c] -= lx[a0 + c] * x0;
         }
       }
-      for (let r = 0; r < k; r++) {
-        const o = r * n + f;
-        // Diagonal block: unit upper triangular solve with Lᵀ, four rows of L at a time: finish
-        // the four unknowns of the block, then apply them to the entries above in one pass.
-        let j = nc - 1;
-        for (; j >= 3; j -= 4) {
-          const a3 = base + j * nc;
-          const a2 = a3 - nc;
-          const a1 = a2 - nc;
-          const a0 = a1 - nc;
+      // Diagonal block: unit upper triangular solve with Lᵀ, four rows of L at a time: finish
+      // the four unknowns of the block, then apply them to the entries above in one pass.
+      let j = nc - 1;
+      for (; j >= 3; j -= 4) {
+        const a3 = base + j * nc;
+        const a2 = a3 - nc;
+        const a1 = a2 - nc;
+        const a0 = a1 - nc;
+        const top = j - 3;
+        for (let r = 0; r < k; r++) {
+          const o = r * n + f;
           const x3 = y[o + j];
           const x2 = y[o + j - 1] - lx[a3 + j - 1] * x3;
           const x1 = y[o + j - 2] - lx[a3 + j - 2] * x3 - lx[a2 + j - 2] * x2;
@@ -220,11 +244,13 @@ class SupernodalFactor implements LdltFactor {
           y[o + j - 1] = x2;
           y[o + j - 2] = x1;
           y[o + j - 3] = x0;
-          const top = j - 3;
           for (let c = 0; c < top; c++) y[o + c] -= lx[a0 + c] * x0 + lx[a1 + c] * x1 + lx[a2 + c] * x2 + lx[a3 + c] * x3;
         }
-        for (; j > 0; j--) {
-          const rj = base + j * nc;
+      }
+      for (; j > 0; j--) {
+        const rj = base + j * nc;
+        for (let r = 0; r < k; r++) {
+          const o = r * n + f;
           const xj = y[o + j];
           for (let c = 0; c < j; c++) y[o + c] -= lx[rj + c] * xj;
         }
@@ -254,8 +280,8 @@ export function factorize(sym: SymbolicFactor, values: Float64Array, options: Fa
  * and relative indices), then factor its block by column panels.
  */
 export function factorizeNamed(symbolic: SymbolicFactor, values: Float64Array, options: FactorizeOptions, matrixName: string): LdltFactor {
-  const opts = { ...FACTORIZE_DEFAULTS, ...options };
-  const tolerance = opts.pivotTolerance;
+  // An option given as undefined takes its default.
+  const tolerance = options.pivotTolerance ?? FACTORIZE_DEFAULTS.pivotTolerance;
   if (typeof tolerance !== 'number' || !(tolerance >= 0) || !Number.isFinite(tolerance)) {
     throw new ArgumentError(`pivotTolerance is ${tolerance}; pass a finite number ≥ 0 (default 1e-13)`, 'options.pivotTolerance');
   }

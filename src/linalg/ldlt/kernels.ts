@@ -54,7 +54,7 @@ export function gemmSubNT(
 }
 
 /**
- * Unblocked {@link gemmSubNT}: 4×4 register blocks, then the 4×1, 1×4 and 1×1 edges; row i
+ * Unblocked {@link gemmSubNT}: 4×4 register blocks, then the 4×2, 4×1, 1×4 and 1×1 edges; row i
  * computes the columns j ≤ i + lower (within a 4-row block, up to its last row's limit).
  */
 function gemmKernel(
@@ -113,6 +113,32 @@ function gemmKernel(
       C[o] -= c20; C[o + 1] -= c21; C[o + 2] -= c22; C[o + 3] -= c23;
       o += ldc;
       C[o] -= c30; C[o + 1] -= c31; C[o + 2] -= c32; C[o + 3] -= c33;
+    }
+    if (j + 2 <= qEnd) {
+      const b0 = bOff + j * ldb;
+      const b1 = b0 + ldb;
+      let c00 = 0, c01 = 0, c10 = 0, c11 = 0, c20 = 0, c21 = 0, c30 = 0, c31 = 0;
+      for (let c = 0; c < k; c++) {
+        const y0 = B[b0 + c];
+        const y1 = B[b1 + c];
+        const x0 = A[a0 + c];
+        const x1 = A[a1 + c];
+        const x2 = A[a2 + c];
+        const x3 = A[a3 + c];
+        c00 += x0 * y0; c01 += x0 * y1;
+        c10 += x1 * y0; c11 += x1 * y1;
+        c20 += x2 * y0; c21 += x2 * y1;
+        c30 += x3 * y0; c31 += x3 * y1;
+      }
+      let o = cOff + i * ldc + j;
+      C[o] -= c00; C[o + 1] -= c01;
+      o += ldc;
+      C[o] -= c10; C[o + 1] -= c11;
+      o += ldc;
+      C[o] -= c20; C[o + 1] -= c21;
+      o += ldc;
+      C[o] -= c30; C[o + 1] -= c31;
+      j += 2;
     }
     for (; j < qEnd; j++) {
       const b0 = bOff + j * ldb;
