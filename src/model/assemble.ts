@@ -14,6 +14,7 @@ import { barConsistentMassPlane, barConsistentMassSpace, barLumpedMassPlane, bar
 import { planeFrameConsistentMass, planeFrameLumpedMass, planeFrameStiffness } from '../elements/planeFrame';
 import { spaceFrameConsistentMass, spaceFrameLumpedMass, spaceFrameStiffness } from '../elements/spaceFrame';
 import type { PlaneFrameProps, SpaceFrameProps } from '../elements/types';
+import { ModelError } from '../errors';
 import { CooBuilder } from '../linalg/sparse/symmetric';
 import { DOF_SLOT, numberDofs } from './dofs';
 import type { AssembledModel, Model } from './types';
@@ -29,6 +30,8 @@ const SLOTS_FRAME_SPACE = [0, 1, 2, 3, 4, 5];
  * @returns K and M over the free DOFs (lower-stored CSC, N/m and kg; N·m/rad and kg·m² on
  *   rotations), the free DOF list, node coordinates (m), and `dofMap`
  *   (dofMap[6·node + slot] = free index or −1; slot order ux uy uz rx ry rz)
+ * @throws ModelError (path `elements[i]`) when an element's matrices overflow to a non-finite
+ *   entry (properties that are each valid but combine beyond double precision)
  */
 export function assemble(model: Model): AssembledModel {
   const plane = model.space === 'plane';
@@ -73,7 +76,8 @@ export function assemble(model: Model): AssembledModel {
     }
   };
 
-  for (const e of model.elements) {
+  for (let ei = 0; ei < model.elements.length; ei++) {
+    const e = model.elements[ei];
     const a = nodeIndex.get(e.nodes[0])!;
     const b = nodeIndex.get(e.nodes[1])!;
     const dx = coordinates[3 * b] - coordinates[3 * a];
@@ -116,6 +120,7 @@ export function assemble(model: Model): AssembledModel {
       }
     }
     const per = slots.length;
+    checkFinite(e.id, ei, ke, me, (2 * per) ** 2);
     for (let s = 0; s < per; s++) {
       map[s] = dofMap[6 * a + slots[s]];
       map[per + s] = dofMap[6 * b + slots[s]];
@@ -149,4 +154,23 @@ export function assemble(model: Model): AssembledModel {
     M.add(i, i, 0);
   }
   return { model, stiffness: K.toCsc(), mass: M.toCsc(), dofs, coordinates, dofMap };
+}
+
+/**
+ * Every property passes validation one by one (finite, > 0), yet a combination can overflow or
+ * underflow in the element formulas (e.g. κ = 1e-300 gives an infinite shear parameter, and
+ * 0 · ∞ = NaN in the Timoshenko matrices; E = 1e300 with A = 1e300 overflows). Such an element
+ * would reach the solver as NaN; it is refused here, by name.
+ * @throws ModelError (path `elements[i]`) when an entry of the element's stiffness or mass is not finite
+ */
+function checkFinite(id: string, index: number, ke: Float64Array, me: Float64Array, size: number): void {
+  for (let k = 0; k < size; k++) {
+    if (!Number.isFinite(ke[k]) || !Number.isFinite(me[k])) {
+      const which = Number.isFinite(ke[k]) ? 'mass' : 'stiffness';
+      throw new ModelError(
+        `element "${id}" has a ${which} matrix entry that is ${Number.isFinite(ke[k]) ? me[k] : ke[k]} (its properties overflow or underflow in double precision); check E, G, density, A, Iz, Iy, J and kappa of its material and section for values far outside the physical range`,
+        `elements[${index}]`,
+      );
+    }
+  }
 }

@@ -54,7 +54,7 @@ function isObj(v: unknown): v is Obj {
 function checkKeys(o: Obj, allowed: string[], path: string, what: string): void {
   for (const k of Object.keys(o)) {
     if (!allowed.includes(k)) {
-      fail(path === '' ? k : `${path}.${k}`, `${what} has an unknown property "${k}"; use only ${allowed.map((a) => `"${a}"`).join(', ')} (check the spelling)`);
+      fail(path === '' ? (IDENTIFIER.test(k) ? k : `[${JSON.stringify(k)}]`) : keyPath(path, k), `${what} has an unknown property ${JSON.stringify(k)}; use only ${allowed.map((a) => `"${a}"`).join(', ')} (check the spelling)`);
     }
   }
 }
@@ -93,117 +93,121 @@ function optNum(o: Obj, key: string, path: string, what: string, unit: string): 
   return o[key] === undefined ? undefined : num(o[key], `${path}.${key}`, what, unit, 'positive');
 }
 
+/** A key that can follow a dot in a JSON path; any other key is written `["key"]`. */
+const IDENTIFIER = /^[A-Za-z_$][\w$]*$/;
+
 function keyPath(base: string, key: string): string {
-  return /^[A-Za-z_$][\w$]*$/.test(key) ? `${base}.${key}` : `${base}[${JSON.stringify(key)}]`;
+  return IDENTIFIER.test(key) ? `${base}.${key}` : `${base}[${JSON.stringify(key)}]`;
 }
 
 // ---------------------------------------------------------------------------------------------
 // JSON syntax errors: V8's messages do not always carry a position, so a small scanner
 // (RFC 8259 grammar) finds the offset of the first error.
 
-/** Offset of the first JSON syntax error in text (text.length when the input ends early). */
+/**
+ * Offset of the first JSON syntax error in text (text.length when the input ends early; −1
+ * when there is none). Iterative, with an explicit stack of open containers, so that deeply
+ * nested input (e.g. 100,000 "[") cannot overflow the call stack.
+ */
 export function jsonErrorOffset(text: string): number {
-  let i = 0;
   const n = text.length;
-  class Stop {
-    constructor(readonly at: number) {}
-  }
+  let i = 0;
+  const open: number[] = []; // 0: inside an array, 1: inside an object
   const ws = () => {
     while (i < n && (text[i] === ' ' || text[i] === '\t' || text[i] === '\n' || text[i] === '\r')) i++;
   };
-  const value = (): void => {
-    ws();
-    if (i >= n) throw new Stop(n);
-    const c = text[i];
-    if (c === '{') {
-      i++;
-      ws();
-      if (text[i] === '}') {
-        i++;
-        return;
-      }
-      for (;;) {
-        ws();
-        if (text[i] !== '"') throw new Stop(Math.min(i, n));
-        string();
-        ws();
-        if (text[i] !== ':') throw new Stop(Math.min(i, n));
-        i++;
-        value();
-        ws();
-        if (text[i] === ',') {
-          i++;
-          continue;
-        }
-        if (text[i] === '}') {
-          i++;
-          return;
-        }
-        throw new Stop(Math.min(i, n));
-      }
-    }
-    if (c === '[') {
-      i++;
-      ws();
-      if (text[i] === ']') {
-        i++;
-        return;
-      }
-      for (;;) {
-        value();
-        ws();
-        if (text[i] === ',') {
-          i++;
-          continue;
-        }
-        if (text[i] === ']') {
-          i++;
-          return;
-        }
-        throw new Stop(Math.min(i, n));
-      }
-    }
-    if (c === '"') return string();
-    for (const lit of ['true', 'false', 'null']) {
-      if (text.startsWith(lit, i)) {
-        i += lit.length;
-        return;
-      }
-    }
-    const m = /^-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?/.exec(text.slice(i, i + 400));
-    if (m && m[0].length > 0) {
-      i += m[0].length;
-      return;
-    }
-    throw new Stop(i);
-  };
-  const string = (): void => {
+  /** Scans the string starting at text[i] === '"'; returns −1, or the offset of its error. */
+  const string = (): number => {
     i++;
     while (i < n) {
       const ch = text.charCodeAt(i);
       if (ch === 34) {
         i++;
-        return;
+        return -1;
       }
-      if (ch < 32) throw new Stop(i);
+      if (ch < 32) return i;
       if (ch === 92) {
         const e = text[i + 1];
         if (e === 'u') {
-          if (!/^[0-9a-fA-F]{4}$/.test(text.slice(i + 2, i + 6))) throw new Stop(i);
+          if (!/^[0-9a-fA-F]{4}$/.test(text.slice(i + 2, i + 6))) return i;
           i += 6;
         } else if (e !== undefined && '"\\/bfnrt'.includes(e)) i += 2;
-        else throw new Stop(i);
+        else return i;
       } else i++;
     }
-    throw new Stop(n);
+    return n;
   };
-  try {
-    value();
+  /** Scans `"key" :` at text[i] (after whitespace); returns −1, or the offset of its error. */
+  const key = (): number => {
     ws();
-    return i < n ? i : -1;
-  } catch (e) {
-    if (e instanceof Stop) return e.at;
-    throw e;
+    if (text[i] !== '"') return Math.min(i, n);
+    const e = string();
+    if (e >= 0) return e;
+    ws();
+    if (text[i] !== ':') return Math.min(i, n);
+    i++;
+    return -1;
+  };
+  let expectValue = true;
+  for (;;) {
+    if (expectValue) {
+      ws();
+      if (i >= n) return n;
+      const c = text[i];
+      if (c === '{' || c === '[') {
+        i++;
+        ws();
+        if (text[i] === (c === '{' ? '}' : ']')) {
+          i++;
+          expectValue = false;
+          continue;
+        }
+        open.push(c === '{' ? 1 : 0);
+        if (c === '{') {
+          const e = key();
+          if (e >= 0) return e;
+        }
+        continue;
+      }
+      if (c === '"') {
+        const e = string();
+        if (e >= 0) return e;
+        expectValue = false;
+        continue;
+      }
+      const lit = ['true', 'false', 'null'].find((l) => text.startsWith(l, i));
+      if (lit) {
+        i += lit.length;
+        expectValue = false;
+        continue;
+      }
+      const m = /^-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?/.exec(text.slice(i, i + 400));
+      if (m && m[0].length > 0) {
+        i += m[0].length;
+        expectValue = false;
+        continue;
+      }
+      return i;
+    }
+    // after a value: the end of the text, a comma, or the closer of the innermost container
+    ws();
+    if (open.length === 0) return i < n ? i : -1;
+    const inObject = open[open.length - 1] === 1;
+    if (text[i] === ',') {
+      i++;
+      if (inObject) {
+        const e = key();
+        if (e >= 0) return e;
+      }
+      expectValue = true;
+      continue;
+    }
+    if (text[i] === (inObject ? '}' : ']')) {
+      i++;
+      open.pop();
+      continue;
+    }
+    return Math.min(i, n);
   }
 }
 
@@ -455,22 +459,30 @@ export function validateModel(raw: unknown): Model {
   });
 
   // --- two nodes at the same point (allowed only when a two-node spring joins them) -------------
-  // Sort lexicographically by (x, y, z); a pair within tol in every coordinate then lies
-  // within a run of nodes whose x differ by at most tol, scanned until y also drifts apart.
-  const order = Int32Array.from(nodes, (_, i) => i).sort((p, q) => xyz[3 * p] - xyz[3 * q] || xyz[3 * p + 1] - xyz[3 * q + 1] || xyz[3 * p + 2] - xyz[3 * q + 2]);
+  // Sweep along the axis of largest extent: sorted by that coordinate, a pair within tol in
+  // every coordinate lies in a run whose sorted coordinate differs by at most tol; inside the
+  // run the other two coordinates are compared. (Sweeping along the widest axis keeps the runs
+  // short: only nodes in one cross-section share a coordinate.) Of all such pairs, the one
+  // whose later node comes first in "nodes" is reported.
+  const span = [hi[0] - lo[0], hi[1] - lo[1], hi[2] - lo[2]];
+  const ax = span[0] >= span[1] && span[0] >= span[2] ? 0 : span[1] >= span[2] ? 1 : 2;
+  const order = Int32Array.from(nodes, (_, i) => i).sort((p, q) => xyz[3 * p + ax] - xyz[3 * q + ax] || p - q);
+  let clash: [number, number] | undefined;
   for (let s = 0; s < order.length; s++) {
     const i = order[s];
     for (let t = s + 1; t < order.length; t++) {
       const j = order[t];
-      if (xyz[3 * j] - xyz[3 * i] > tol) break;
-      const dy = xyz[3 * j + 1] - xyz[3 * i + 1];
-      if (dy > tol && xyz[3 * j] === xyz[3 * i]) break;
-      if (Math.abs(dy) <= tol && Math.abs(xyz[3 * j + 2] - xyz[3 * i + 2]) <= tol) {
+      if (xyz[3 * j + ax] - xyz[3 * i + ax] > tol) break;
+      if (Math.abs(xyz[3 * j] - xyz[3 * i]) <= tol && Math.abs(xyz[3 * j + 1] - xyz[3 * i + 1]) <= tol && Math.abs(xyz[3 * j + 2] - xyz[3 * i + 2]) <= tol) {
         if (pairs.has(i < j ? `${i} ${j}` : `${j} ${i}`)) continue;
-        const [f, g] = i < j ? [i, j] : [j, i];
-        fail(`nodes[${g}]`, `node "${nodes[g].id}" is at the same point as node "${nodes[f].id}" (${coord(i).join(', ')}); merge them, move one, or join them with a two-node spring`);
+        const pair: [number, number] = i < j ? [i, j] : [j, i];
+        if (!clash || pair[1] < clash[1] || (pair[1] === clash[1] && pair[0] < clash[0])) clash = pair;
       }
     }
+  }
+  if (clash) {
+    const [f, g] = clash;
+    fail(`nodes[${g}]`, `node "${nodes[g].id}" is at the same point as node "${nodes[f].id}" (${coord(f).join(', ')}); merge them, move one, or join them with a two-node spring`);
   }
 
   const model: Model = { format: MODEL_FORMAT, space, mass: massKind, materials, sections, nodes, elements, supports, springs, masses };

@@ -67,15 +67,19 @@ export const DENSE_EIGEN_DEFAULTS = {
  * Lowest eigenpairs of K x = λ M x with dense methods.
  *
  * Massless DOFs (zero rows of M) are condensed out statically first, so their infinite
- * eigenvalues never appear; the modes are expanded back to all n DOFs. A singular K
- * (free-free structure) gives rigid-body eigenvalues ≈ 0 (possibly a tiny negative number).
+ * eigenvalues never appear; the modes are expanded back to all n DOFs. When M is still
+ * singular (null directions that are not DOFs, e.g. lumped torsional inertia of skew members)
+ * those directions are condensed too (nullmass.ts): count ≤ rank M. Eigenvalues are returned
+ * as the Rayleigh quotients of their vectors on the full K and M. A singular K (free-free
+ * structure) gives rigid-body eigenvalues ≈ 0 (possibly a tiny negative number).
  *
  * @param K - stiffness, n × n symmetric (N/m, N·m/rad): SymmetricCsc, ml-matrix Matrix or
  *   `{ n, data }` row-major; not modified
  * @param M - mass, n × n symmetric positive semidefinite (kg, kg·m²), same forms; not modified
  * @param options - see {@link DenseEigenOptions}
  * @returns eigenvalues ascending (rad²/s²), M-orthonormal mode shapes column-major n × count,
- *   residuals, orthogonality error, stats (ms per phase, massless DOFs, Jacobi sweeps/rotations)
+ *   residuals, orthogonality error, stats (ms per phase, massless DOFs, massless directions
+ *   that are not DOFs, Jacobi sweeps/rotations)
  * @throws ArgumentError for malformed input or options (path `K`, `M(i, j)`, `count`, …);
  *   FactorizationError (path `row i`) when M is indefinite or the massless block of K is
  *   singular; VerificationError (path `modes[j]` or `maxSweeps`) when the result fails its checks
