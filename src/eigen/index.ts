@@ -3,7 +3,7 @@ export type { EigenMethod, EigenResult, SturmCheck } from './types';
 export { solve, SOLVE_DEFAULTS, DENSE_CROSSOVER, FREE_SHIFT, ZERO_SHIFT_PIVOT_RATIO, MAX_ROUNDS, RANGE_BLOCK, type SolveOptions, type SolveMethod } from './solve';
 export { ShiftedPencil, SHIFT_NUDGE, SHIFT_ATTEMPTS, type ShiftedFactor } from './pencil';
 export { assertAccepted, RESIDUAL_LIMIT, ORTHOGONALITY_LIMIT } from './accept';
-export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions } from './dense/index';
+export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions, type DenseEigenInput, type DenseSymmetric } from './dense/index';
 export { lanczos, LANCZOS_DEFAULTS, type LanczosOptions, type LanczosResult, type ProgressCallback } from './lanczos';
 export { subspaceIteration, SUBSPACE_DEFAULTS, type SubspaceOptions, type SubspaceResult } from './subspace';
 export { sturmCount, sturmCheck, STURM_GAP, type SturmCheckOptions } from './sturm';

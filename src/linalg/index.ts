@@ -8,5 +8,5 @@ export type { OrderingName, AnalyseOptions, SymbolicFactor, FactorizeOptions, Ld
 export { analyse, ANALYSE_DEFAULTS, AUTO_CANDIDATES, type OrderingCandidate } from './ldlt/analyse';
 export { factorize, FACTORIZE_DEFAULTS } from './ldlt/factorize';
 export { solveStatic } from './ldlt/static';
-export { order, amd, rcm, nestedDissection, type OrderingMethod } from './ordering/index';
+export { order, amd, rcm, nestedDissection, type OrderingMethod, type NestedDissectionOptions } from './ordering/index';
 export { symbolicFill } from './ordering/fill';

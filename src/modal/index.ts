@@ -6,7 +6,7 @@ export { eigenvalueToFrequency, frequencyToEigenvalue, naturalFrequencies, type 
 export { influenceVector, influenceVectors, centreOfMass, directionsOf, PLANE_DIRECTIONS, SPACE_DIRECTIONS, type InfluenceOptions, type InfluenceVectors, type Point3 } from './influence';
 export { participation, directionParticipation, modalMasses, type Participation, type DirectionParticipation, type ParticipationOptions } from './participation';
 export { massNormalise, orientModes, MASS_NORMALISE_DEFAULTS, type MassNormaliseOptions } from './normalise';
-export { spectralStiffness, truncationError, TRUNCATION_DEFAULTS, type TruncationOptions, type TruncationMethod } from './reconstruction';
+export { spectralStiffness, truncationError, TRUNCATION_DEFAULTS, TRUNCATION_COLUMNS_BUDGET, type TruncationOptions, type TruncationMethod } from './reconstruction';
 export { modalStatic, type ModalStaticOptions, type ModalStaticResult } from './static';
 export type { ModeSet } from './modes';
 export {
@@ -23,7 +23,7 @@ export { resolveDofs, loadVector, responseModes, modalLoads, type DofRef, type P
 export { harmonicResponse, frequencySweep, HARMONIC_DEFAULTS, type HarmonicOptions, type HarmonicResult, type DofHarmonicResponse, type SweepOptions } from './harmonic';
 export { pedestrianResponse, PEDESTRIAN_DEFAULTS, type PedestrianOptions, type PedestrianResult } from './harmonic-pedestrian';
 export {
-  designSpectrum, spectralAcceleration, responseSpectrum, STANDARD_GRAVITY, DESIGN_SPECTRUM_DEFAULTS, RESPONSE_SPECTRUM_DEFAULTS,
+  designSpectrum, spectralAcceleration, responseSpectrum, STANDARD_GRAVITY, DESIGN_SPECTRUM_DEFAULTS, RESPONSE_SPECTRUM_DEFAULTS, type DesignSpectrumOptions,
   type SpectrumPoint, type DesignSpectrum, type ResponseSpectrumOptions, type ResponseSpectrumResult, type ModalPeak,
 } from './spectrum';
 export { cqcCorrelation, combineModal, correlationMatrix, type CombinationRule } from './spectrum-combination';
