@@ -20,6 +20,7 @@ import { extname, join, normalize, resolve, sep } from 'node:path';
 import type { Readable, Writable } from 'node:stream';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { modalAnalysis } from '../src/modal/analysis';
+import { Cdp } from './chromium';
 import { parseModel } from '../src/model/read';
 
 const CHROMIUM = '/usr/bin/chromium';
@@ -63,48 +64,6 @@ function serveRoot(): Promise<{ server: Server; origin: string; failures: string
     const a = server.address();
     ok({ server, origin: `http://127.0.0.1:${typeof a === 'object' && a ? a.port : 0}`, failures });
   }));
-}
-
-/** A minimal CDP client over chromium's debugging pipe. */
-class Cdp {
-  private nextId = 1;
-  private buffer = '';
-  private readonly calls = new Map<number, { ok: (v: any) => void; fail: (e: Error) => void }>();
-  readonly events: Array<{ method: string; params: any; sessionId?: string }> = [];
-  private listeners: Array<(e: { method: string; params: any; sessionId?: string }) => void> = [];
-
-  constructor(private readonly out: Writable, input: Readable) {
-    input.setEncoding('utf8');
-    input.on('data', (chunk: string) => {
-      this.buffer += chunk;
-      let k: number;
-      while ((k = this.buffer.indexOf('\0')) >= 0) {
-        const msg = JSON.parse(this.buffer.slice(0, k));
-        this.buffer = this.buffer.slice(k + 1);
-        if (msg.id !== undefined) {
-          const c = this.calls.get(msg.id);
-          this.calls.delete(msg.id);
-          if (msg.error) c?.fail(new Error(`${msg.error.message} (${msg.error.code})`));
-          else c?.ok(msg.result);
-        } else {
-          this.events.push(msg);
-          for (const l of this.listeners) l(msg);
-        }
-      }
-    });
-  }
-
-  send(method: string, params: object = {}, sessionId?: string): Promise<any> {
-    const id = this.nextId++;
-    return new Promise((ok, fail) => {
-      this.calls.set(id, { ok, fail });
-      this.out.write(`${JSON.stringify({ id, method, params, ...(sessionId ? { sessionId } : {}) })}\0`);
-    });
-  }
-
-  onEvent(l: (e: { method: string; params: any; sessionId?: string }) => void): void {
-    this.listeners.push(l);
-  }
 }
 
 let chrome: ChildProcess | undefined;
