@@ -91,7 +91,7 @@ describe('readMatrixMarket: accepted files', () => {
   });
 
   it('default options are documented values', () => {
-    expect(READ_MATRIX_MARKET_DEFAULTS).toEqual({ symmetryTolerance: 1e-12 });
+    expect(READ_MATRIX_MARKET_DEFAULTS).toEqual({ symmetryTolerance: 1e-12, maxDimension: 50_000_000, maxArrayDimension: 8000 });
     expect(DOF_MAP_DEFAULTS).toEqual({ format: 'csv' });
   });
 });
@@ -289,6 +289,57 @@ describe('writeDofMap', () => {
     } catch (e) {
       expect(e).toBeInstanceOf(ArgumentError);
       expect((e as ArgumentError).path).toBe('format');
+    }
+  });
+});
+
+describe('readMatrixMarket: sizes whose storage cannot fit are refused at the size line', () => {
+  // Regression: a three-line file declaring 999999999 × 999999999 with one entry was accepted
+  // and took minutes and gigabytes (O(n) index arrays). The caps are the documented defaults
+  // (READ_MATRIX_MARKET_DEFAULTS), not measured limits.
+  it('coordinate n = 999999999 with one entry: MatrixMarketError at line 2, quickly', () => {
+    const t = performance.now();
+    const e = mmError(() => readMatrixMarket('%%MatrixMarket matrix coordinate real symmetric\n999999999 999999999 1\n1 1 1\n', 'big.mtx'));
+    expect(performance.now() - t).toBeLessThan(1000);
+    expect(e.path).toBe('big.mtx:2');
+    expect(e.message).toContain('999999999');
+    expect(e.message).toContain('maxDimension = 50000000');
+    expect(e.message).toContain('correct the size line');
+  });
+
+  it('beyond 32-bit indices (2³¹): refused whatever maxDimension says', () => {
+    const e = mmError(() => readMatrixMarket('%%MatrixMarket matrix coordinate real general\n2147483648 2147483648 1\n1 1 1\n', 'K.mtx', { maxDimension: 0x7fffffff }));
+    expect(e.path).toBe('K.mtx:2');
+    expect(e.message).toContain('32-bit');
+  });
+
+  it('array n above maxArrayDimension: refused (dense n × n buffer), with the coordinate format as the fix', () => {
+    const e = mmError(() => readMatrixMarket('%\n%%MatrixMarket matrix array real symmetric\n% c\n8001 8001\n1\n'.slice(2), 'A.mtx'));
+    expect(e.path).toBe('A.mtx:3');
+    expect(e.message).toContain('maxArrayDimension = 8000');
+    expect(e.message).toContain('coordinate');
+  });
+
+  it('the caps are options: a lower maxDimension refuses a small file, the default accepts it', () => {
+    const text = '%%MatrixMarket matrix coordinate real symmetric\n3 3 1\n1 1 2\n';
+    expect(mmError(() => readMatrixMarket(text, 'K.mtx', { maxDimension: 2 })).path).toBe('K.mtx:2');
+    const a = readMatrixMarket(text, 'K.mtx');
+    expect(a.n).toBe(3);
+    expect(dense(a)[0]).toBe(2);
+    const arr = '%%MatrixMarket matrix array real general\n2 2\n1\n0\n0\n4\n';
+    expect(mmError(() => readMatrixMarket(arr, 'A.mtx', { maxArrayDimension: 1 })).path).toBe('A.mtx:2');
+    expect(dense(readMatrixMarket(arr, 'A.mtx'))).toEqual([1, 0, 0, 4]);
+  });
+
+  it('bad cap options are ArgumentErrors naming the option', () => {
+    for (const [key, v] of [['maxDimension', 0], ['maxDimension', 2.5], ['maxArrayDimension', 2 ** 31]] as const) {
+      try {
+        readMatrixMarket('%%MatrixMarket matrix coordinate real symmetric\n1 1 1\n1 1 1\n', 'K.mtx', { [key]: v });
+        expect.unreachable();
+      } catch (e) {
+        expect(e).toBeInstanceOf(ArgumentError);
+        expect((e as ArgumentError).path).toBe(key);
+      }
     }
   });
 });

@@ -6,7 +6,7 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { VerificationError } from '../errors';
-import { combineColumnsInPlace, gram } from './kernels';
+import { combineColumnsInPlace, dotColumns, gram, subtractColumns } from './kernels';
 
 /** Solution of a small dense generalized symmetric problem A q = λ B q, B positive definite. */
 export interface ProjectedEigen {
@@ -124,4 +124,117 @@ export function rayleighRitz(x: Float64Array, kx: Float64Array, mx: Float64Array
   combineColumnsInPlace(x, n, 0, q, vectors, q, q, tmp);
   combineColumnsInPlace(mx, n, 0, q, vectors, q, q, tmp);
   return values;
+}
+
+/** Result of {@link mGramSchmidt}. */
+export interface GramSchmidtResult {
+  /** Columns kept, k. */
+  readonly kept: number;
+  /** Smallest M-norm² ratio (after / before orthogonalisation) of a kept column; 0 when one was dropped, 1 when none lost norm. */
+  readonly minRatio: number;
+}
+
+/**
+ * Rank-revealing M-orthonormalisation of a block in place by classical Gram–Schmidt with one
+ * reorthogonalisation ("twice is enough": Giraud, Langou & Rozložník, Comput. Math. Appl. 50,
+ * 2005; Parlett, The Symmetric Eigenvalue Problem, §6.9), in the M-inner product with M·x kept
+ * alongside (no operator applications). A column whose M-norm after orthogonalisation falls to
+ * dropTolerance times its M-norm before is dropped as M-dependent; norms, not Gram matrices, are
+ * compared, so an independence of 1e-8 is still seen (a Gram matrix would square it to ε).
+ * The kept k columns are compacted to [0, k) of x and mx, in their original order.
+ * M·x is updated by the same recurrence, so its error grows as ε / (kept norm ratio): a second
+ * call after recomputing mx = M x brings it back to round-off.
+ * @param x - block, column-major n × m (overwritten)
+ * @param mx - M·x, column-major n × m (overwritten)
+ * @param dropTolerance - relative M-norm floor, in (0, 1)
+ * @param t - output, column-major m × m (length ≥ m²): columns [0, k) hold T with x_new = x_old T
+ * @param h - work buffer, length ≥ m
+ * @returns the number k of M-orthonormal columns kept, and the smallest M-norm² ratio
+ *   (after / before orthogonalisation) among them, 0 when a column was dropped
+ * @throws VerificationError (path `projection`) when a column holds non-finite values
+ */
+export function mGramSchmidt(x: Float64Array, mx: Float64Array, n: number, m: number, dropTolerance: number, t: Float64Array, h: Float64Array): GramSchmidtResult {
+  t.fill(0, 0, m * m);
+  const tj = new Float64Array(m);
+  let k = 0;
+  let minRatio = 1;
+  for (let j = 0; j < m; j++) {
+    const v = x.subarray(j * n, (j + 1) * n);
+    const w = mx.subarray(j * n, (j + 1) * n);
+    let s0 = 0;
+    for (let i = 0; i < n; i++) s0 += v[i] * w[i];
+    if (!Number.isFinite(s0)) {
+      throw new VerificationError(`basis vector ${j} has M-norm² ${s0}; the iteration produced non-finite values — check K and M for NaN or overflow`, 'projection');
+    }
+    if (!(s0 > 0)) continue;
+    tj.fill(0);
+    tj[j] = 1;
+    let s = s0;
+    // Second pass only when the first removed more than half of the M-norm² (Kahan–Parlett
+    // criterion, Parlett §6.9: a norm kept above 1/√2 leaves orthogonality at round-off).
+    for (let pass = 0; pass < 2 && k > 0 && !(pass === 1 && s > 0.5 * s0); pass++) {
+      dotColumns(mx, n, 0, k, v, h); // h_i = (M q_i)ᵀ v = q_iᵀ M v
+      subtractColumns(x, n, 0, k, h, v);
+      subtractColumns(mx, n, 0, k, h, w);
+      for (let i = 0; i < k; i++) {
+        const hi = h[i];
+        if (hi === 0) continue;
+        for (let r = 0; r < m; r++) tj[r] -= t[i * m + r] * hi;
+      }
+      s = 0;
+      for (let i = 0; i < n; i++) s += v[i] * w[i];
+    }
+    if (!(s > dropTolerance * dropTolerance * s0)) {
+      minRatio = 0;
+      continue;
+    }
+    if (s < minRatio * s0) minRatio = s / s0;
+    const inv = 1 / Math.sqrt(s);
+    const o = k * n;
+    for (let i = 0; i < n; i++) {
+      x[o + i] = v[i] * inv;
+      mx[o + i] = w[i] * inv;
+    }
+    for (let r = 0; r < m; r++) t[k * m + r] = tj[r] * inv;
+    k++;
+  }
+  return { kept: k, minRatio };
+}
+
+/**
+ * C ← Tᵀ A T (a congruence) for A column-major m × m symmetric and T column-major m × k; C is
+ * k × k column-major, symmetrised.
+ */
+export function congruence(a: Float64Array, m: number, t: Float64Array, k: number): Float64Array {
+  const at = new Float64Array(m * k);
+  for (let c = 0; c < k; c++) {
+    for (let j = 0; j < m; j++) {
+      const tj = t[c * m + j];
+      if (tj === 0) continue;
+      for (let i = 0; i < m; i++) at[c * m + i] += a[j * m + i] * tj;
+    }
+  }
+  const out = new Float64Array(k * k);
+  for (let c = 0; c < k; c++) {
+    for (let r = 0; r <= c; r++) {
+      let s = 0;
+      for (let i = 0; i < m; i++) s += t[r * m + i] * at[c * m + i];
+      out[c * k + r] = s;
+    }
+  }
+  for (let c = 0; c < k; c++) for (let r = c + 1; r < k; r++) out[c * k + r] = out[r * k + c];
+  return out;
+}
+
+/** C ← A B for A column-major m × l and B column-major l × k; C is m × k column-major. */
+export function multiplySmall(a: Float64Array, m: number, l: number, b: Float64Array, k: number): Float64Array {
+  const c = new Float64Array(m * k);
+  for (let col = 0; col < k; col++) {
+    for (let j = 0; j < l; j++) {
+      const bj = b[col * l + j];
+      if (bj === 0) continue;
+      for (let i = 0; i < m; i++) c[col * m + i] += a[j * m + i] * bj;
+    }
+  }
+  return c;
 }

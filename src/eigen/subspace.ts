@@ -4,15 +4,36 @@
  * X̄ = (K − σM)⁻¹ M X, project K − σM and M onto X̄, solve the q × q problem densely, rotate.
  * Vector i converges at the rate |λᵢ − σ| / |λ_{q+1} − σ| (Bathe §11.6.2).
  *
- * Workspaces (X, X̄, M·X) are column-major n × q Float64Arrays sized once.
+ * Before the projection X̄ is M-orthonormalised by rank-revealing Gram–Schmidt (ritz.ts
+ * `mGramSchmidt`): M-dependent directions are dropped and re-seeded with random vectors,
+ * and when dropping repeats without gain the block shrinks to the span the operator can reach
+ * (at most rank M − lockedCount: massless DOFs of a lumped mass, or a spectrum so wide that
+ * (K − σM)⁻¹ M X has fewer independent columns than q in double precision).
+ *
+ * Workspaces (X, X̄, M·X) are column-major n × q Float64Arrays sized once; the small q × q
+ * problems allocate.
  */
-import { AbortedError, ArgumentError } from '../errors';
+import { AbortedError, ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
 import { dotColumns, gram, combineColumnsInPlace, SeededRandom, subtractColumns } from './kernels';
 import type { BlockOperator } from './operators';
 import type { ProgressCallback } from './lanczos';
-import { projectedEigen } from './ritz';
+import { congruence, mGramSchmidt, multiplySmall, projectedEigen } from './ritz';
 import { matrixNorm1 } from './verify';
+
+/**
+ * Relative M-norm floor of rank-revealing Gram–Schmidt (ritz.ts `mGramSchmidt`): a column that
+ * keeps less than this fraction of its M-norm after orthogonalisation to the others is dropped
+ * as M-dependent. Exactly dependent directions (a singular M) keep about ε·cond; a column that
+ * keeps 1e-9 still carries its information (a 2-DOF pencil with λ₂/λ₁ ≈ 1e9 needs it).
+ */
+const DROP_TOLERANCE = 1e-11;
+/**
+ * When a kept column lost more than this fraction of its M-norm² to orthogonalisation, M·X̄ is
+ * recomputed and Gram–Schmidt repeated: the recurrence for M·X̄ carries an error of about
+ * ε / ratio (ritz.ts `mGramSchmidt`), 1e-12 at this ratio.
+ */
+const RECOMPUTE_RATIO = 1e-4;
 
 export interface SubspaceOptions {
   /** Eigenpairs wanted (p): those nearest the shift σ. @defaultValue 20 */
@@ -52,7 +73,7 @@ export const SUBSPACE_DEFAULTS = {
 } as const;
 
 export interface SubspaceResult {
-  /** Converged eigenvalues nearest σ, ascending, rad²/s², length m. */
+  /** Eigenvalues nearest σ, ascending, rad²/s², length m = count (fewer, with `converged` false, when the reachable span holds fewer than count pairs). */
   readonly eigenvalues: Float64Array;
   /** Their vectors, column-major n × m, M-orthonormal. */
   readonly vectors: Float64Array;
@@ -75,7 +96,7 @@ export interface SubspaceResult {
  * @param stiffness - y ← K x, n × n symmetric (for the residual test)
  * @param options - see {@link SubspaceOptions}; defaults in {@link SUBSPACE_DEFAULTS}
  * @throws ArgumentError on invalid options, AbortedError when aborted, VerificationError (path
- *   `projection`) if the iteration vectors lose M-independence
+ *   `projection`) when every iteration vector has zero M-norm or holds non-finite values
  */
 export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, stiffness: Operator, options: SubspaceOptions = {}): SubspaceResult {
   const o = { ...SUBSPACE_DEFAULTS, ...options };
@@ -93,14 +114,17 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
   const normK = o.normK > 0 ? o.normK : matrixNorm1(stiffness);
 
   // ---- workspace ----
-  const X = new Float64Array(n * q);
+  let X = new Float64Array(n * q);
+  let Xb = new Float64Array(n * q);
   const MX = new Float64Array(n * q);
-  const Xb = new Float64Array(n * q);
+  const kx = new Float64Array(n);
   const A = new Float64Array(q * q);
   const B = new Float64Array(q * q);
+  const T1 = new Float64Array(q * q);
+  const T2 = new Float64Array(q * q);
+  const h2 = new Float64Array(q);
   const h = new Float64Array(Math.max(L, 1));
   const tmp = new Float64Array(256 * q);
-  const kx = new Float64Array(n);
   const lockedM = new Float64Array(n * L);
   if (L > 0) mass.applyMany(o.locked!, lockedM, L);
   const rng = new SeededRandom(o.seed);
@@ -112,10 +136,17 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
   let stagnated = false;
   let iterations = 0;
   let nconv = 0;
+  // Active block size qa ≤ q and Ritz pairs held k ≤ qa: the block shrinks when the operator's
+  // range is exhausted (rank M − lockedCount < q, e.g. massless rotations of a lumped mass).
+  let qa = q;
+  let k = 0;
+  let want = p;
+  let droppedLast = -1;
 
-  const deflate = (y: Float64Array): void => {
+  /** Removes the locked directions from columns [c0, c1) of y (M-orthogonal projection, twice). */
+  const deflate = (y: Float64Array, c0: number, c1: number): void => {
     if (L === 0) return;
-    for (let c = 0; c < q; c++) {
+    for (let c = c0; c < c1; c++) {
       const v = y.subarray(c * n, (c + 1) * n);
       for (let pass = 0; pass < 2; pass++) {
         dotColumns(lockedM, n, 0, L, v, h);
@@ -124,29 +155,71 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
     }
   };
 
+  deflate(X, 0, q);
   mass.applyMany(X, MX, q);
   let order: number[] = [];
   while (iterations < o.maxIterations) {
     if (o.signal?.aborted) throw new AbortedError('the eigen solve was aborted through its AbortSignal; run it again without aborting to get the modes', 'signal');
     iterations++;
     // X̄ = (K − σM)⁻¹ M X  (Bathe eq. 11.107)
-    inverse.applyMany(MX, Xb, q);
-    deflate(Xb);
-    // Projections: (K − σM) onto X̄ is X̄ᵀ M X (since (K − σM) X̄ = M X), M onto X̄ is X̄ᵀ M X̄ (eq. 11.108–11.109).
-    gram(Xb, MX, n, q, q, A);
-    mass.applyMany(Xb, MX, q);
-    gram(Xb, MX, n, q, q, B);
-    const { values, vectors } = projectedEigen(A, B, q);
-    // Rotate: X = X̄ Q, M X = (M X̄) Q (eq. 11.111).
-    X.set(Xb);
-    combineColumnsInPlace(X, n, 0, q, vectors, q, q, tmp);
-    combineColumnsInPlace(MX, n, 0, q, vectors, q, q, tmp);
-    for (let c = 0; c < q; c++) omega[c] = values[c];
+    inverse.applyMany(MX, Xb, qa);
+    deflate(Xb, 0, qa);
+    // Projection of K − σM onto X̄ is X̄ᵀ M X, since (K − σM) X̄ = M X (Bathe eq. 11.108).
+    gram(Xb, MX, n, qa, qa, A);
+    // M-orthonormalise X̄ before projecting M (rank-revealing Gram–Schmidt, ritz.ts): with a
+    // wide spectrum the columns of X̄ differ in M-norm by |λ_q − σ| / |λ_1 − σ| and the solve's
+    // round-off leaves them nearly dependent, so the Cholesky of X̄ᵀ M X̄ (eq. 11.109) fails.
+    // M-dependent directions are dropped. When a column lost most of its norm, M X̄ is
+    // recomputed and the process repeated, so the basis Z = X̄ T is M-orthonormal to
+    // round-off; the projected problem becomes (Tᵀ A T) Q = (Zᵀ M Z) Q Ω with Zᵀ M Z ≈ I.
+    mass.applyMany(Xb, MX, qa);
+    const gs = mGramSchmidt(Xb, MX, n, qa, DROP_TOLERANCE, T1, h2);
+    const k1 = gs.kept;
+    let T: Float64Array = T1;
+    k = k1;
+    if (gs.minRatio < RECOMPUTE_RATIO && k1 > 0) {
+      mass.applyMany(Xb, MX, k1);
+      k = mGramSchmidt(Xb, MX, n, k1, DROP_TOLERANCE, T2, h2).kept;
+      T = multiplySmall(T1, qa, k1, T2, k);
+    } else if (qa !== k1) {
+      T = T1.subarray(0, qa * k1);
+    }
+    if (k === 0) {
+      throw new VerificationError(
+        'every iteration vector has zero M-norm after (K − σM)⁻¹ M; M is zero on the free DOFs or every mode is locked — check the mass matrix',
+        'projection',
+      );
+    }
+    gram(Xb, MX, n, k, k, B);
+    const { values, vectors } = projectedEigen(congruence(A, qa, T, k), B, k);
+    // Rotate: X = Z Q, M X = (M Z) Q (eq. 11.111).
+    combineColumnsInPlace(Xb, n, 0, k, vectors, k, k, tmp);
+    combineColumnsInPlace(MX, n, 0, k, vectors, k, k, tmp);
+    const swap = X;
+    X = Xb;
+    Xb = swap;
+    for (let c = 0; c < k; c++) omega[c] = values[c];
+    // Lost columns: re-seed them with random vectors; if the block lost columns on two
+    // iterations running without gaining any, its span is exhausted: shrink it.
+    if (k < qa) {
+      if (droppedLast >= 0 && k <= droppedLast) {
+        qa = k;
+      } else {
+        const fresh = X.subarray(k * n, qa * n);
+        rng.fill(fresh);
+        deflate(X, k, qa);
+        mass.applyMany(fresh, MX.subarray(k * n, qa * n), qa - k);
+      }
+      droppedLast = k;
+    } else {
+      droppedLast = -1;
+    }
+    want = Math.min(p, k);
     // Wanted first: |λ − σ| smallest.
-    order = Array.from({ length: q }, (_, i) => i).sort((a, b) => Math.abs(omega[a]) - Math.abs(omega[b]) || a - b);
-    // Residuals of the p wanted pairs: ‖K x − λ M x‖ / (‖K‖ ‖x‖).
+    order = Array.from({ length: k }, (_, i) => i).sort((a, b) => Math.abs(omega[a]) - Math.abs(omega[b]) || a - b);
+    // Residuals of the wanted pairs: ‖K x − λ M x‖ / (‖K‖ ‖x‖).
     nconv = 0;
-    for (let r = 0; r < p; r++) {
+    for (let r = 0; r < want; r++) {
       const c = order[r];
       const x = X.subarray(c * n, (c + 1) * n);
       const mx = MX.subarray(c * n, (c + 1) * n);
@@ -155,8 +228,8 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
       let r2 = 0;
       let x2 = 0;
       for (let i = 0; i < n; i++) {
-        const e = kx[i] - lam * mx[i];
-        r2 += e * e;
+        const d = kx[i] - lam * mx[i];
+        r2 += d * d;
         x2 += x[i] * x[i];
       }
       res[c] = Math.sqrt(r2) / (normK * Math.sqrt(x2) || 1);
@@ -164,29 +237,31 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
     }
     o.onProgress?.('subspace', nconv / p);
     if (nconv === p) break;
+    // Span exhausted below p pairs: every pair it holds is converged, no more can come.
+    if (qa < p && nconv === want) break;
     // Stagnation at round-off: no wanted residual improved by 10 % for 10 iterations while all
     // are within 100× the tolerance; further iterations cannot improve them.
     let improved = false;
     let within = true;
-    for (let r = 0; r < p; r++) {
+    for (let r = 0; r < want; r++) {
       const c = order[r];
       if (!(res[c] >= 0.9 * best[r])) improved = true;
       if (res[c] < best[r]) best[r] = res[c];
       if (res[c] > 100 * o.tolerance) within = false;
     }
     stale = improved ? 0 : stale + 1;
-    if (within && stale >= 10) {
+    if (within && stale >= 10 && want === p) {
       stagnated = true;
       break;
     }
   }
 
-  const sel = order.slice(0, p).sort((a, b) => omega[a] - omega[b] || a - b);
-  const eigenvalues = new Float64Array(p);
-  const residuals = new Float64Array(p);
-  const vectors = new Float64Array(n * p);
-  const massVectors = new Float64Array(n * p);
-  for (let c = 0; c < p; c++) {
+  const sel = order.slice(0, want).sort((a, b) => omega[a] - omega[b] || a - b);
+  const eigenvalues = new Float64Array(want);
+  const residuals = new Float64Array(want);
+  const vectors = new Float64Array(n * want);
+  const massVectors = new Float64Array(n * want);
+  for (let c = 0; c < want; c++) {
     const s = sel[c];
     eigenvalues[c] = sigma + omega[s];
     residuals[c] = res[s];

@@ -23,10 +23,23 @@ export interface ReadMatrixMarketOptions {
    * @defaultValue 1e-12
    */
   symmetryTolerance?: number;
+  /**
+   * Largest dimension n accepted, an integer from 1 to 2³¹ − 1 (indices are 32-bit). Reading a
+   * coordinate file allocates by the entry count plus a few arrays of length n (about 20n bytes:
+   * 1 GB at the default), so a size line that declares a huge n with few entries is refused
+   * before anything is allocated. @defaultValue 50,000,000
+   */
+  maxDimension?: number;
+  /**
+   * Largest dimension n accepted for an `array` file, which is read through a dense n × n
+   * buffer (12n² bytes: 0.77 GB at the default, the dense solver's own limit). Larger matrices
+   * belong in coordinate files. @defaultValue 8000
+   */
+  maxArrayDimension?: number;
 }
 
 /** Defaults of {@link ReadMatrixMarketOptions}. */
-export const READ_MATRIX_MARKET_DEFAULTS = { symmetryTolerance: 1e-12 } as const;
+export const READ_MATRIX_MARKET_DEFAULTS = { symmetryTolerance: 1e-12, maxDimension: 50_000_000, maxArrayDimension: 8000 } as const;
 
 const NL = 10; // \n
 const CR = 13; // \r
@@ -164,15 +177,23 @@ type Symmetry = 'general' | 'symmetric';
  * @returns n × n symmetric matrix, lower-triangle CSC
  * @throws MatrixMarketError with path `<source>:<line>` (1-based line) for a bad banner, an
  *   unsupported format, field (complex, pattern) or symmetry (skew-symmetric, hermitian), a bad
- *   or non-square size line, a non-numeric, non-integer or non-finite value, an out-of-range
+ *   or non-square size line, a dimension above `maxDimension` (or `maxArrayDimension` for an
+ *   array file; nothing is allocated before this check), a non-numeric, non-integer or non-finite value, an out-of-range
  *   index, a repeated entry, a pair in both triangles, an asymmetric `general` file, too few
  *   entries (the path is the last line) or too many.
- * @throws ArgumentError when `symmetryTolerance` is negative or not a number.
+ * @throws ArgumentError when `symmetryTolerance` is negative or not a number, or `maxDimension`
+ *   or `maxArrayDimension` is not an integer from 1 to 2³¹ − 1.
  */
 export function readMatrixMarket(text: string, source = 'matrix.mtx', options: ReadMatrixMarketOptions = {}): SymmetricCsc {
   const opts = { ...READ_MATRIX_MARKET_DEFAULTS, ...options };
   if (!(opts.symmetryTolerance >= 0)) {
     throw new ArgumentError(`symmetryTolerance ${opts.symmetryTolerance} is not a number ≥ 0; pass e.g. 1e-12`, 'symmetryTolerance');
+  }
+  for (const key of ['maxDimension', 'maxArrayDimension'] as const) {
+    const v = opts[key];
+    if (!Number.isInteger(v) || v < 1 || v > 0x7fffffff) {
+      throw new ArgumentError(`${key} ${v} is not an integer from 1 to 2147483647 (2³¹ − 1); pass e.g. ${READ_MATRIX_MARKET_DEFAULTS[key]}`, key);
+    }
   }
   const len = text.length;
   let pos = text.charCodeAt(0) === 0xfeff ? 1 : 0; // start of the current line (after a byte-order mark)
@@ -267,7 +288,15 @@ export function readMatrixMarket(text: string, source = 'matrix.mtx', options: R
   }
   const n = sizes[0];
   if (sizes[1] !== n) fail(line, `the matrix is ${sizes[0]} × ${sizes[1]}, not square; stiffness and mass matrices are square`);
-  if (n > 0x7fffffff) fail(line, `dimension ${n} is too large for 32-bit indices`);
+  // Refuse sizes whose storage cannot fit before allocating anything (a size line of 10⁹ would
+  // otherwise allocate gigabytes of O(n) arrays for a file of three lines).
+  if (n > 0x7fffffff) fail(line, `dimension ${n} is too large for 32-bit indices (at most 2147483647); correct the size line`);
+  if (n > opts.maxDimension) {
+    fail(line, `dimension ${n} exceeds maxDimension = ${opts.maxDimension} (reading needs about ${((20 * n) / 1e9).toFixed(1)} GB of index arrays of length n); correct the size line, or raise the maxDimension option if the matrix really is that large`);
+  }
+  if (format === 'array' && n > opts.maxArrayDimension) {
+    fail(line, `an array file of dimension ${n} exceeds maxArrayDimension = ${opts.maxArrayDimension} (it is read through a dense ${n} × ${n} buffer of ${((12 * n * n) / 1e9).toFixed(1)} GB); store the matrix as a coordinate file, correct the size line, or raise the maxArrayDimension option`);
+  }
 
   if (format === 'array') return readArray(n);
   return readCoordinate(n, sizes[2]);
