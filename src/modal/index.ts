@@ -36,8 +36,8 @@ export {
   type NodalLoad, type LoadCase, type BucklingOptions, type BucklingResult,
 } from './buckling';
 export {
-  eigenvalueSensitivity, groupSensitivity, rankMembers, resolveGroup, elementMatrices, REPEATED_GAP,
-  type MemberGroup, type ElementMatrices, type ElementSensitivity, type ModeSensitivity, type SensitivityOptions, type ResolvedGroup, type GroupSensitivity, type RankBy,
+  eigenvalueSensitivity, groupSensitivity, rankMembers, resolveGroup, REPEATED_GAP,
+  type MemberGroup, type ElementSensitivity, type ModeSensitivity, type SensitivityOptions, type ResolvedGroup, type GroupSensitivity, type RankBy,
 } from './sensitivity';
 export {
   whatIf, scaledModel, whatIfSymbolic, stiffnessScaleFor, STIFFNESS_TARGET_DEFAULTS,

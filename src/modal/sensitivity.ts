@@ -16,16 +16,13 @@
  * Repeated eigenvalues are not differentiable in general (the derivative depends on which vector
  * of the eigenspace is taken; Nelson 1976 and later work treat that case); such modes are flagged.
  *
- * Element matrices are rebuilt here exactly as model/assemble.ts builds them (same element
- * functions, same global axes and DOF slots), so φ_eᵀk_eφ_e summed over all members plus the
+ * Element matrices come from model/element-matrices.ts, the code assembly itself uses (same
+ * element functions, global axes and DOF slots), so φ_eᵀk_eφ_e summed over all members plus the
  * springs' share equals φᵀKφ.
  */
-import { barConsistentMassPlane, barConsistentMassSpace, barLumpedMassPlane, barLumpedMassSpace, barStiffnessPlane, barStiffnessSpace } from '../elements/bar';
-import { planeFrameConsistentMass, planeFrameLumpedMass, planeFrameStiffness } from '../elements/planeFrame';
-import { spaceFrameConsistentMass, spaceFrameLumpedMass, spaceFrameStiffness } from '../elements/spaceFrame';
-import type { PlaneFrameProps, SpaceFrameProps } from '../elements/types';
 import { ArgumentError } from '../errors';
 import { symmetricMultiply } from '../linalg/sparse/symmetric';
+import { elementMatrices, type ElementMatrices } from '../model/element-matrices';
 import type { AssembledModel, Model } from '../model/types';
 import { modeCount, type ModeSet } from './modes';
 
@@ -43,97 +40,6 @@ export interface MemberGroup {
   readonly elements?: readonly string[];
   /** A section name: the group is every element of that section. */
   readonly section?: string;
-}
-
-/** Global-axis element matrices of one member and where its DOFs sit in the free-DOF system. */
-export interface ElementMatrices {
-  /** Element DOF count d (4 plane bar, 6 space bar or plane frame, 12 space frame). */
-  readonly size: number;
-  /** Free DOF index of each element DOF, or −1 when that DOF is supported; length d. */
-  readonly dofs: Int32Array;
-  /** k_e, d × d row-major, global axes, N/m (N, N·m on rotations). */
-  readonly stiffness: Float64Array;
-  /** m_e, d × d row-major, global axes, kg (kg·m on rotations). */
-  readonly mass: Float64Array;
-  /** Member mass ρ A L, kg. */
-  readonly memberMass: number;
-}
-
-const SLOTS_BAR_PLANE = [0, 1];
-const SLOTS_BAR_SPACE = [0, 1, 2];
-const SLOTS_FRAME_PLANE = [0, 1, 5];
-const SLOTS_FRAME_SPACE = [0, 1, 2, 3, 4, 5];
-
-/**
- * Element stiffness and mass of element `k` in global axes, as assembled into K and M.
- * @param asm - the assembled model (its dofMap and coordinates)
- * @param k - element index in model.elements
- * @throws ArgumentError (path `element`) for an index out of range
- */
-export function elementMatrices(asm: AssembledModel, k: number): ElementMatrices {
-  const model = asm.model;
-  const e = model.elements[k];
-  if (!Number.isInteger(k) || e === undefined) throw new ArgumentError(`element index ${k} is out of range; use 0..${model.elements.length - 1}`, 'element');
-  const plane = model.space === 'plane';
-  const lumped = model.mass === 'lumped';
-  const a = nodeIndexOf(model, e.nodes[0]);
-  const b = nodeIndexOf(model, e.nodes[1]);
-  const xyz = asm.coordinates;
-  const dx = xyz[3 * b] - xyz[3 * a], dy = xyz[3 * b + 1] - xyz[3 * a + 1], dz = xyz[3 * b + 2] - xyz[3 * a + 2];
-  const mat = model.materials[e.material];
-  const sec = model.sections[e.section];
-  const ke = new Float64Array(144);
-  const me = new Float64Array(144);
-  let slots: number[];
-  if (e.kind === 'bar') {
-    if (plane) {
-      barStiffnessPlane(mat.E, sec.A, dx, dy, ke);
-      (lumped ? barLumpedMassPlane : barConsistentMassPlane)(mat.density, sec.A, dx, dy, me);
-      slots = SLOTS_BAR_PLANE;
-    } else {
-      barStiffnessSpace(mat.E, sec.A, dx, dy, dz, ke);
-      (lumped ? barLumpedMassSpace : barConsistentMassSpace)(mat.density, sec.A, dx, dy, dz, me);
-      slots = SLOTS_BAR_SPACE;
-    }
-  } else {
-    const theory = e.kind === 'timoshenko' ? 'timoshenko' : 'euler-bernoulli';
-    if (plane) {
-      const p: PlaneFrameProps = { E: mat.E, A: sec.A, I: sec.Iz!, density: mat.density, theory, G: mat.G, kappa: sec.kappa };
-      planeFrameStiffness(p, dx, dy, ke);
-      if (lumped) planeFrameLumpedMass(p, Math.hypot(dx, dy), me);
-      else planeFrameConsistentMass(p, dx, dy, me);
-      slots = SLOTS_FRAME_PLANE;
-    } else {
-      const p: SpaceFrameProps = { E: mat.E, G: mat.G!, A: sec.A, Iz: sec.Iz!, Iy: sec.Iy!, J: sec.J!, Ip: sec.Ip, density: mat.density, theory, kappa: sec.kappa };
-      spaceFrameStiffness(p, dx, dy, dz, e.orientation, ke);
-      (lumped ? spaceFrameLumpedMass : spaceFrameConsistentMass)(p, dx, dy, dz, e.orientation, me);
-      slots = SLOTS_FRAME_SPACE;
-    }
-  }
-  const per = slots.length;
-  const d = 2 * per;
-  const dofs = new Int32Array(d);
-  const dofMap = asm.dofMap!;
-  for (let s = 0; s < per; s++) {
-    dofs[s] = dofMap[6 * a + slots[s]];
-    dofs[per + s] = dofMap[6 * b + slots[s]];
-  }
-  return { size: d, dofs, stiffness: ke.slice(0, d * d), mass: me.slice(0, d * d), memberMass: mat.density * sec.A * Math.hypot(dx, dy, dz) };
-}
-
-// Node id → index, cached per nodes array (checked on every use, rebuilt if the array changed).
-const NODE_INDEX = new WeakMap<readonly unknown[], Map<string, number>>();
-
-function nodeIndexOf(model: Model, id: string): number {
-  let map = NODE_INDEX.get(model.nodes);
-  let i = map?.get(id);
-  if (i === undefined || model.nodes[i]?.id !== id) {
-    map = new Map(model.nodes.map((nd, k) => [nd.id, k]));
-    NODE_INDEX.set(model.nodes, map);
-    i = map.get(id);
-  }
-  if (i === undefined) throw new ArgumentError(`node "${id}" is not in the model; validate the model first`, 'nodes');
-  return i;
 }
 
 /** Sensitivity of one mode to one member. */

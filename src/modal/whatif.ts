@@ -23,7 +23,8 @@ import { assertNoMechanism } from '../model/mechanisms';
 import type { AssembledModel } from '../model/types';
 import type { ModalAnalysis } from './analysis-types';
 import type { ModalAnalysisOptions } from './analysis';
-import { eigenvalueSensitivity, elementMatrices, resolveGroup, type MemberGroup } from './sensitivity';
+import { elementMatrices } from '../model/element-matrices';
+import { eigenvalueSensitivity, resolveGroup, type MemberGroup } from './sensitivity';
 import { summariseModes } from './summary';
 
 /** One change of a design variant. */

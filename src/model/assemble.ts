@@ -10,20 +10,11 @@
  *
  * Mechanisms (free DOFs nothing stiffens) are NOT an error here; see mechanisms.ts.
  */
-import { barConsistentMassPlane, barConsistentMassSpace, barLumpedMassPlane, barLumpedMassSpace, barStiffnessPlane, barStiffnessSpace } from '../elements/bar';
-import { planeFrameConsistentMass, planeFrameLumpedMass, planeFrameStiffness } from '../elements/planeFrame';
-import { spaceFrameConsistentMass, spaceFrameLumpedMass, spaceFrameStiffness } from '../elements/spaceFrame';
-import type { PlaneFrameProps, SpaceFrameProps } from '../elements/types';
 import { ModelError } from '../errors';
 import { CooBuilder } from '../linalg/sparse/symmetric';
 import { DOF_SLOT, numberDofs } from './dofs';
+import { fillElementMatrices, type FrameProps } from './element-matrices';
 import type { AssembledModel, Model } from './types';
-
-// Node-local slots of each element's DOFs, in element-matrix order.
-const SLOTS_BAR_PLANE = [0, 1];
-const SLOTS_BAR_SPACE = [0, 1, 2];
-const SLOTS_FRAME_PLANE = [0, 1, 5];
-const SLOTS_FRAME_SPACE = [0, 1, 2, 3, 4, 5];
 
 /**
  * Assembles stiffness and mass of a validated model (see validateModel / parseModel).
@@ -35,7 +26,6 @@ const SLOTS_FRAME_SPACE = [0, 1, 2, 3, 4, 5];
  */
 export function assemble(model: Model): AssembledModel {
   const plane = model.space === 'plane';
-  const lumped = model.mass === 'lumped';
   const { dofMap, dofs, nodeIndex, used } = numberDofs(model);
   const n = dofs.length;
   const nNodes = model.nodes.length;
@@ -60,7 +50,7 @@ export function assemble(model: Model): AssembledModel {
   const ke = new Float64Array(144);
   const me = new Float64Array(144);
   const map = new Int32Array(12);
-  const propsCache = new Map<string, PlaneFrameProps | SpaceFrameProps>();
+  const propsCache = new Map<string, FrameProps>();
 
   const scatter = (B: CooBuilder, a: Float64Array, d: number): void => {
     for (let i = 0; i < d; i++) {
@@ -83,42 +73,7 @@ export function assemble(model: Model): AssembledModel {
     const dx = coordinates[3 * b] - coordinates[3 * a];
     const dy = coordinates[3 * b + 1] - coordinates[3 * a + 1];
     const dz = coordinates[3 * b + 2] - coordinates[3 * a + 2];
-    const mat = model.materials[e.material];
-    const sec = model.sections[e.section];
-    let slots: number[];
-    if (e.kind === 'bar') {
-      if (plane) {
-        barStiffnessPlane(mat.E, sec.A, dx, dy, ke);
-        (lumped ? barLumpedMassPlane : barConsistentMassPlane)(mat.density, sec.A, dx, dy, me);
-        slots = SLOTS_BAR_PLANE;
-      } else {
-        barStiffnessSpace(mat.E, sec.A, dx, dy, dz, ke);
-        (lumped ? barLumpedMassSpace : barConsistentMassSpace)(mat.density, sec.A, dx, dy, dz, me);
-        slots = SLOTS_BAR_SPACE;
-      }
-    } else {
-      const key = `${e.kind}\u0000${e.material}\u0000${e.section}`;
-      let props = propsCache.get(key);
-      const theory = e.kind === 'timoshenko' ? 'timoshenko' : 'euler-bernoulli';
-      if (plane) {
-        if (props === undefined) {
-          props = { E: mat.E, A: sec.A, I: sec.Iz!, density: mat.density, theory, G: mat.G, kappa: sec.kappa } as PlaneFrameProps;
-          propsCache.set(key, props);
-        }
-        planeFrameStiffness(props as PlaneFrameProps, dx, dy, ke);
-        if (lumped) planeFrameLumpedMass(props as PlaneFrameProps, Math.hypot(dx, dy), me);
-        else planeFrameConsistentMass(props as PlaneFrameProps, dx, dy, me);
-        slots = SLOTS_FRAME_PLANE;
-      } else {
-        if (props === undefined) {
-          props = { E: mat.E, G: mat.G!, A: sec.A, Iz: sec.Iz!, Iy: sec.Iy!, J: sec.J!, Ip: sec.Ip, density: mat.density, theory, kappa: sec.kappa } as SpaceFrameProps;
-          propsCache.set(key, props);
-        }
-        spaceFrameStiffness(props as SpaceFrameProps, dx, dy, dz, e.orientation, ke);
-        (lumped ? spaceFrameLumpedMass : spaceFrameConsistentMass)(props as SpaceFrameProps, dx, dy, dz, e.orientation, me);
-        slots = SLOTS_FRAME_SPACE;
-      }
-    }
+    const slots = fillElementMatrices(model, e, dx, dy, dz, ke, me, propsCache);
     const per = slots.length;
     checkFinite(e.id, ei, ke, me, (2 * per) ** 2);
     for (let s = 0; s < per; s++) {

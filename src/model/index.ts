@@ -8,3 +8,4 @@ export { numberDofs, DOF_NAMES, DOF_SLOT, SPACE_DOFS, type DofNumbering } from '
 export { assemble } from './assemble';
 export { findMechanisms, assertNoMechanism, MECHANISM_DEFAULTS, type Mechanism, type MechanismOptions } from './mechanisms';
 export { assembleGeometric } from './geometric';
+export { elementMatrices, fillElementMatrices, type ElementMatrices, type FrameProps } from './element-matrices';
