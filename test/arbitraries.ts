@@ -14,6 +14,10 @@ import fc from 'fast-check';
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { CooBuilder, toDenseArray, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import type { ElementKind, ElementSpec, MassKind, Model, NodeSpec } from '../src/model/types';
+import { mulberry32 as rng } from '../src/linalg/random';
+
+/** Seeded uniform generator on [0, 1), so every run sees the same data. */
+export { rng };
 
 // ---------------------------------------------------------------------------------------------
 // Material and section groups
@@ -376,17 +380,6 @@ export function renumberModel(model: Model, r: readonly number[]): Model {
 // ---------------------------------------------------------------------------------------------
 // Random sparse SPD pairs
 
-/** Deterministic uniform [0, 1) generator (mulberry32). */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export interface PairSpec {
   n: number;

@@ -1,16 +1,9 @@
 /** Seeded random symmetric pairs for the dense eigensolver tests (invented data, seeded). */
+import { mulberry32 as seeded } from '../src/linalg/random';
 
-/** mulberry32: small seeded generator, uniform in [0, 1). */
-export function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded uniform generator on [0, 1) (mulberry32). */
+export { seeded };
+
 
 /** Random SPD matrix B Bᵀ + shift·I, row-major n × n. */
 export function randomSpd(n: number, rand: () => number, shift: number): Float64Array {

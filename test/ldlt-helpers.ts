@@ -3,18 +3,11 @@
  * (invented data for tests and measurements, not a structural model).
  */
 import { CooBuilder, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
+import { mulberry32 as rng } from '../src/linalg/random';
 
-/** Seeded uniform generator on [0, 1) (mulberry32), so every run sees the same matrices. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded uniform generator on [0, 1), so every run sees the same data. */
+export { rng };
+
 
 /** Shape of a building-frame-like grid: bays along x, y and storeys along z. */
 export interface FrameGrid {

@@ -3,6 +3,7 @@ import { readMatrixMarket, writeMatrixMarket, READ_MATRIX_MARKET_DEFAULTS } from
 import { writeDofMap, DOF_MAP_DEFAULTS } from '../src/io/matrix-market-dofs';
 import { ArgumentError, MatrixMarketError } from '../src/errors';
 import { CooBuilder, toDenseArray, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
+import { mulberry32 as rng } from '../src/linalg/random';
 
 // Format reference throughout: Boisvert, Pozo, Remington, "The Matrix Market Exchange Formats:
 // Initial Design", NISTIR 5935 (1996): banner "%%MatrixMarket matrix <format> <field>
@@ -22,17 +23,6 @@ function mmError(fn: () => unknown): MatrixMarketError {
 
 const dense = (a: SymmetricCsc) => Array.from(toDenseArray(a));
 
-/** Seeded generator (mulberry32) so each run sees the same matrix. */
-function rng(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('readMatrixMarket: accepted files', () => {
   it('coordinate real symmetric, lower triangle, comments and blank lines', () => {

@@ -6,6 +6,10 @@
 import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { fromDenseArray, type SymmetricCsc, toDenseArray } from '../src/linalg/sparse/symmetric';
 import type { AssembledModel, DofInfo, DofName, Space } from '../src/model/types';
+import { mulberry32 as rng } from '../src/linalg/random';
+
+/** Seeded uniform generator on [0, 1) (mulberry32). */
+export { rng };
 
 export interface DenseModes {
   n: number;
@@ -67,17 +71,6 @@ export function handModel(space: Space, nodes: Array<[string, number, number, nu
   };
 }
 
-/** Seeded generator (mulberry32): same input, same output. */
-export function rng(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** A random symmetric positive definite n × n matrix (seeded), as dense row-major arrays. */
 export function randomSpd(n: number, seed: number, density = 0.3): number[][] {

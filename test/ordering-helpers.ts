@@ -4,18 +4,11 @@
  */
 import { CooBuilder } from '../src/linalg/sparse/symmetric';
 import type { SymmetricCsc } from '../src/linalg/sparse/symmetric';
+import { mulberry32 as rng } from '../src/linalg/random';
 
-/** Deterministic pseudo-random numbers in [0, 1) (mulberry32). */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Seeded uniform generator on [0, 1), so every run sees the same data. */
+export { rng };
+
 
 /**
  * Pattern of a structure whose nodes carry `dof` unknowns each: every node is a dense

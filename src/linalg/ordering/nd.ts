@@ -1,6 +1,7 @@
 import { ArgumentError } from '../../errors';
 import { amdGraph } from './amd';
 import type { Graph } from './graph';
+import { mulberry32 } from '../random';
 
 /** Options of nested dissection. */
 export interface NestedDissectionOptions {
@@ -46,17 +47,6 @@ interface WGraph {
   total: number;
 }
 
-/** Deterministic pseudo-random numbers in [0, 1) (mulberry32). */
-function makeRng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * Nested-dissection ordering of a graph whose vertex v stands for `weight[v]` unknowns.
@@ -89,7 +79,7 @@ export function ndGraph(g: Graph, weight: Int32Array | undefined, options: Neste
   const root: WGraph = { n, xadj: g.xadj, adjncy: g.adjncy, vwgt, adjwgt, total };
   const ids = new Int32Array(n);
   for (let v = 0; v < n; v++) ids[v] = v;
-  const state: NdState = { pos: 0, nsets: 0, rng: makeRng(opt.seed), opt };
+  const state: NdState = { pos: 0, nsets: 0, rng: mulberry32(opt.seed), opt };
   dissect(root, ids, out, state);
   // `out` is the plain dissection order; the sets it was built from become constraint sets of
   // one minimum-degree pass over the whole graph (constrained minimum degree, as CAMD on the
