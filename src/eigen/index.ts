@@ -6,7 +6,7 @@ export { assertAccepted, RESIDUAL_LIMIT, ORTHOGONALITY_LIMIT } from './accept';
 export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions, type DenseEigenInput, type DenseSymmetric } from './dense/index';
 export { lanczos, LANCZOS_DEFAULTS, type LanczosOptions, type LanczosResult, type ProgressCallback } from './lanczos';
 export { subspaceIteration, SUBSPACE_DEFAULTS, type SubspaceOptions, type SubspaceResult } from './subspace';
-export { sturmCount, sturmCheck, STURM_GAP, type SturmCheckOptions } from './sturm';
+export { sturmCount, sturmCheck, STURM_GAP, STURM_PIVOT_TOLERANCE, type SturmCheckOptions } from './sturm';
 export { residuals, orthogonalityError, matrixNorm1, type SymmetricOperand } from './verify';
 export { matrixOperator, shiftInvertOperator, inverseOperator, type BlockOperator } from './operators';
 export { mlMatrixGeneralized, type BaselineResult } from './baseline';

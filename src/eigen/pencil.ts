@@ -87,12 +87,16 @@ export class ShiftedPencil {
    * `direction` when a pivot vanishes.
    * @param direction - +1 to nudge upward, −1 downward
    * @param attempts - shifts to try (1 = no nudge) @defaultValue SHIFT_ATTEMPTS
+   * @param options.pivotTolerance - the factorization's pivot tolerance (factorize.ts)
+   *   @defaultValue FACTORIZE_DEFAULTS.pivotTolerance
+   * @param options.nudge - first nudge in rad²/s² @defaultValue SHIFT_NUDGE · max(|σ|, typical λ)
    * @throws FactorizationError after SHIFT_ATTEMPTS shifts (the pencil itself is singular: a
    *   mechanism without mass, or a DOF with neither stiffness nor mass)
    */
-  factorAt(sigma: number, direction: 1 | -1 = 1, attempts: number = SHIFT_ATTEMPTS): ShiftedFactor {
+  factorAt(sigma: number, direction: 1 | -1 = 1, attempts: number = SHIFT_ATTEMPTS, options: { pivotTolerance?: number; nudge?: number } = {}): ShiftedFactor {
     let s = sigma;
-    let step = SHIFT_NUDGE * Math.max(Math.abs(sigma), this.typicalEigenvalue);
+    let step = options.nudge ?? SHIFT_NUDGE * Math.max(Math.abs(sigma), this.typicalEigenvalue);
+    const factorOptions = options.pivotTolerance === undefined ? {} : { pivotTolerance: options.pivotTolerance };
     let last: FactorizationError | undefined;
     let tried = s;
     for (let attempt = 0; attempt < attempts; attempt++) {
@@ -101,7 +105,7 @@ export class ShiftedPencil {
       const t0 = performance.now();
       try {
         this.factorizations++;
-        const factor = factorize(this.symbolic, this.values);
+        const factor = factorize(this.symbolic, this.values, factorOptions);
         return { factor, shift: s };
       } catch (e) {
         if (!(e instanceof FactorizationError)) throw e;

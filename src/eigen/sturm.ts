@@ -22,11 +22,21 @@ import { ShiftedPencil } from './pencil';
 
 /**
  * Relative gap between the highest returned eigenvalue and the shift of the Sturm check:
- * σ = λ_max + STURM_GAP · max(|λ_max|, λ_max − λ_min), at least `minimumGap`. A mode closer
+ * σ = λ_max + STURM_GAP · max(|λ_max|, |λ_min|, λ_max − λ_min) (for results that are all ≈ 0,
+ * see SturmCheckOptions.minimumGap). A mode closer
  * than that above λ_max is counted too and must then have been computed (it is, as an extra).
  * A copy of a repeated eigenvalue split by round-off (≈ 1e-12 relative) lies well inside it.
  */
 export const STURM_GAP = 1e-6;
+
+/**
+ * Pivot tolerance (relative to max|A_jj|) of the check factorizations. A count needs only the
+ * signs of the pivots, not a well-conditioned factor, and the default 1e-13 is too coarse when
+ * members differ in stiffness by orders of magnitude: with a contrast of 1e8 the soft part's
+ * pivots are already ≈ 5e-12 · max|A_jj| at σ = 0 and ≈ 5e-18 at STURM_GAP above a mode. Only a
+ * pivot at round-off of round-off (ε²) is treated as σ sitting on an eigenvalue.
+ */
+export const STURM_PIVOT_TOLERANCE = Number.EPSILON * Number.EPSILON;
 
 /**
  * Number of eigenvalues of K x = λ M x below σ: the negative pivots of K − σM.
@@ -47,7 +57,11 @@ export function sturmCount(K: SymmetricCsc, M: SymmetricCsc, sigma: number, sym?
 export interface SturmCheckOptions {
   /** Check the window [λ_min − gap, λ_max + gap) instead of everything below λ_max + gap. @defaultValue false */
   window?: boolean;
-  /** Smallest gap in rad²/s² (for results whose eigenvalues are all ≈ 0). @defaultValue 0 */
+  /**
+   * Smallest gap in rad²/s², for results whose eigenvalues are all ≈ 0 (below this value): the
+   * gap is then widened to it, but never past half the distance to the next computed eigenvalue.
+   * Results with any eigenvalue above it use the relative gap alone. @defaultValue 0
+   */
   minimumGap?: number;
 }
 
@@ -63,14 +77,33 @@ export interface SturmCheckOptions {
 export function sturmCheck(pencil: ShiftedPencil, computed: Float64Array, returned: number, firstReturned = 0, options: SturmCheckOptions = {}): SturmCheck {
   const lo = computed[firstReturned];
   const hi = computed[firstReturned + returned - 1];
-  const gap = Math.max(STURM_GAP * Math.max(Math.abs(hi), Math.abs(lo), hi - lo), options.minimumGap ?? 0, Number.MIN_VALUE);
-  const upper = pencil.factorAt(hi + gap, 1);
+  const scale = Math.max(Math.abs(hi), Math.abs(lo), hi - lo);
+  let gap = STURM_GAP * scale;
+  const floor = options.minimumGap ?? 0;
+  if (floor > gap && scale < floor) {
+    // Every returned eigenvalue is ≈ 0 at the floor's resolution (rigid-body modes, round-off
+    // of either sign): widen the gap to the floor, but stop halfway to the nearest computed
+    // eigenvalue beyond the returned ones, so that the check never asks for modes that the
+    // result has no reason to hold.
+    let g = floor;
+    const next = firstReturned + returned < computed.length ? computed[firstReturned + returned] : Infinity;
+    if (next > hi + gap) g = Math.min(g, 0.5 * (next - hi));
+    if (options.window && firstReturned > 0) {
+      const prev = computed[firstReturned - 1];
+      if (prev < lo - gap) g = Math.min(g, 0.5 * (lo - prev));
+    }
+    gap = Math.max(gap, g);
+  }
+  gap = Math.max(gap, Number.MIN_VALUE);
+  // A nudge (σ on an eigenvalue) moves by a fraction of the gap, not of the typical λ.
+  const checkOptions = { pivotTolerance: STURM_PIVOT_TOLERANCE, nudge: 0.1 * gap };
+  const upper = pencil.factorAt(hi + gap, 1, undefined, checkOptions);
   const shift = upper.shift;
   const countBelow = upper.factor.negativePivots;
   let lowerShift: number | undefined;
   let countBelowLower: number | undefined;
   if (options.window) {
-    const lower = pencil.factorAt(lo - gap, -1);
+    const lower = pencil.factorAt(lo - gap, -1, undefined, checkOptions);
     lowerShift = lower.shift;
     countBelowLower = lower.factor.negativePivots;
   }
