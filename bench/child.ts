@@ -6,6 +6,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeMatrixMarket } from '../src/io/matrix-market';
 import { nnz } from '../src/linalg/sparse/symmetric';
+import type { SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import type { BenchCase } from './cases';
 import { assembleModel, phaseSeconds, solveModes } from './engine';
 import type { EngineName } from './engine';
@@ -39,12 +40,22 @@ export interface CaseRecord {
     /** assembly + solve. */
     total: number;
   };
+  /**
+   * Plane-frame (dense-baseline) cases only: wall seconds of a second, identical solve call in
+   * the same process, after the JIT has compiled the code paths (NaN elsewhere).
+   */
+  warmSolveSeconds: number;
   /** CPU seconds of the solve call (user + system, all threads of the process incl. GC helpers). */
   solveCpuSeconds: number;
   nnzL: number;
+  /** Resident memory just before the solve call (after the collection), MiB. */
+  rssBeforeSolveMiB: number;
   /** Peak RSS of the whole child (getrusage maxRSS). */
   peakMiB: number;
-  /** Peak RSS during the solve alone (K and M loaded), NaN when it cannot be measured. */
+  /**
+   * Peak RSS during the solve alone (K and M loaded, the model and assembly garbage collected
+   * first), NaN when it cannot be measured.
+   */
   solvePeakMiB: number;
   eigenvalues: number[];
   check: { maxResidual: number; orthogonalityError: number; sturmPassed: boolean | null };
@@ -58,30 +69,37 @@ export interface CaseRecord {
  * Runs one (case, engine) measurement. When `mtxDir` is given, also writes K.mtx and M.mtx there
  * after the measurement (for the SciPy reference).
  */
-export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undefined): CaseRecord {
-  const sec = (ms: number): number => ms / 1000;
+/** Model generation and assembly; only K, M and counts leave, so the model can be collected. */
+function prepare(c: BenchCase): { K: SymmetricCsc; M: SymmetricCsc; nodes: number; elements: number; modelMs: number; assemblyMs: number } {
   let t = performance.now();
   const model = c.model();
-  const tModel = performance.now() - t;
+  const modelMs = performance.now() - t;
   t = performance.now();
-  const asm = assembleModel(model);
-  const tAssembly = performance.now() - t;
   // assembleModel validates the model first (as a file read would), then assembles.
-  const K = asm.stiffness;
-  const M = asm.mass;
+  const asm = assembleModel(model);
+  const assemblyMs = performance.now() - t;
+  return { K: asm.stiffness, M: asm.mass, nodes: model.nodes.length, elements: model.elements.length, modelMs, assemblyMs };
+}
+
+export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undefined): CaseRecord {
+  const sec = (ms: number): number => ms / 1000;
+  const { K, M, nodes, elements, modelMs, assemblyMs } = prepare(c);
+  let t = 0;
 
   const record: CaseRecord = {
     case: c.name,
     family: c.family,
     engine,
     dof: K.n,
-    nodes: model.nodes.length,
-    elements: model.elements.length,
+    nodes,
+    elements,
     nnzK: nnz(K),
     nnzM: nnz(M),
-    seconds: { model: sec(tModel), assembly: sec(tAssembly), analyse: NaN, factorization: NaN, iterations: NaN, verify: NaN, solve: NaN, total: NaN },
+    seconds: { model: sec(modelMs), assembly: sec(assemblyMs), analyse: NaN, factorization: NaN, iterations: NaN, verify: NaN, solve: NaN, total: NaN },
     solveCpuSeconds: NaN,
+    warmSolveSeconds: NaN,
     nnzL: NaN,
+    rssBeforeSolveMiB: NaN,
     peakMiB: NaN,
     solvePeakMiB: NaN,
     eigenvalues: [],
@@ -90,6 +108,11 @@ export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undef
     stats: {},
   };
 
+  // The solve-phase peak counts K, M and the solver, as SciPy's does: collect the model and the
+  // assembly's garbage first when the child runs with --expose-gc (the parent passes it).
+  const gc = (globalThis as { gc?: () => void }).gc;
+  if (gc) gc();
+  record.rssBeforeSolveMiB = process.memoryUsage().rss / 2 ** 20;
   const canReset = resetPeak();
   const cpu0 = process.cpuUsage();
   try {
@@ -121,6 +144,11 @@ export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undef
   }
   const cpu = process.cpuUsage(cpu0);
   record.solveCpuSeconds = (cpu.user + cpu.system) / 1e6;
+  if (c.family === 'dense' && engine !== 'mlmatrix' && record.error === undefined) {
+    t = performance.now();
+    solveModes(K, M, MODE_COUNT, engine);
+    record.warmSolveSeconds = sec(performance.now() - t);
+  }
   record.seconds.total = record.seconds.assembly + record.seconds.solve;
   record.solvePeakMiB = canReset ? highWaterMiB() : NaN;
   record.peakMiB = processPeakMiB();

@@ -7,8 +7,8 @@
  * 300–1,500 DOF, our dense solver and ml-matrix's dense route. Prints one report to stdout
  * (progress goes to stderr) and writes bench/out/results.json.
  */
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { CASES, selectCases } from './cases';
@@ -19,6 +19,8 @@ import type { EngineName } from './engine';
 import { growthExponent } from './fit';
 import { fmtCount, fmtMiB, fmtRatio, fmtSci, fmtSeconds, maxRelativeDifference, renderTable } from './table';
 
+type Outcome = (CaseRecord & { note?: string }) | { case: string; engine: EngineName; error: string };
+
 /** What bench/scipy_eigsh.py prints. */
 interface ScipyRecord {
   seconds: number;
@@ -26,6 +28,7 @@ interface ScipyRecord {
   read_seconds: number;
   maxrss_mib: number;
   solve_peak_mib: number | null;
+  rss_before_solve_mib: number | null;
   n: number;
   nnz_lower: number;
   eigenvalues: number[];
@@ -38,11 +41,11 @@ interface Flags {
   timeoutMinutes: number;
 }
 
-const USAGE = `usage: node dist/bench.js [--quick] [--case NAME]... [--timeout-min N]
+const USAGE = `usage: npm run bench -- [--quick] [--case NAME]... [--timeout-min N]
 cases: ${CASES.map((c) => c.name).join(', ')} (or a family: building, footbridge, dense)`;
 
 function parseFlags(argv: readonly string[]): Flags {
-  const flags: Flags = { quick: false, cases: [], timeoutMinutes: 30 };
+  const flags: Flags = { quick: false, cases: [], timeoutMinutes: 10 };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--quick') flags.quick = true;
@@ -70,18 +73,50 @@ function childMain(argv: readonly string[]): void {
   const c = CASES.find((x) => x.name === name);
   if (!c) throw new Error(`no case ${name}`);
   const record = runCase(c, engine as EngineName, mtxDir || undefined);
-  writeFileSync(outFile, JSON.stringify(record));
+  // Write then rename, so the parent never reads a half-written record.
+  writeFileSync(`${outFile}.part`, JSON.stringify(record));
+  renameSync(`${outFile}.part`, outFile);
 }
 
 // ---- parent side ----
 
-function runChild(c: BenchCase, engine: EngineName, work: string, mtxDir: string | undefined, timeoutMs: number): CaseRecord | { case: string; engine: EngineName; error: string } {
+/** Seconds a child may take to exit after writing its record before it is killed. */
+const EXIT_GRACE_MS = 20_000;
+
+/**
+ * Runs one measurement in a child process. The record file is what counts: a child that wrote it
+ * but does not exit within EXIT_GRACE_MS is killed (and the note says so); one that runs past
+ * the time limit is killed without a record.
+ */
+function runChild(c: BenchCase, engine: EngineName, work: string, mtxDir: string | undefined, timeoutMs: number): Promise<Outcome> {
   const out = join(work, `${c.name}.${engine}.json`);
-  const args = [...process.execArgv, process.argv[1], '--child', c.name, engine, out, mtxDir ?? ''];
-  const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'], timeout: timeoutMs });
-  if (existsSync(out)) return JSON.parse(readFileSync(out, 'utf8')) as CaseRecord;
-  const why = r.error ? r.error.message : r.signal ? `killed by ${r.signal}` : `exit status ${r.status}`;
-  return { case: c.name, engine, error: `child failed (${why})` };
+  const args = [...process.execArgv, '--expose-gc', process.argv[1], '--child', c.name, engine, out, mtxDir ?? ''];
+  return new Promise((done) => {
+    const child = spawn(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'] });
+    const start = Date.now();
+    let wroteAt = 0;
+    let note = '';
+    const poll = setInterval(() => {
+      if (wroteAt === 0 && existsSync(out)) wroteAt = Date.now();
+      if (wroteAt > 0 && Date.now() - wroteAt > EXIT_GRACE_MS) {
+        note = `child did not exit ${EXIT_GRACE_MS / 1000} s after writing its record; killed`;
+        child.kill('SIGKILL');
+      } else if (wroteAt === 0 && Date.now() - start > timeoutMs) {
+        note = `no result within ${timeoutMs / 60_000} min; killed`;
+        child.kill('SIGKILL');
+      }
+    }, 250);
+    child.on('exit', (code, signal) => {
+      clearInterval(poll);
+      if (note) process.stderr.write(`[bench] ${c.name} (${engine}): ${note}\n`);
+      if (existsSync(out)) {
+        const record = JSON.parse(readFileSync(out, 'utf8')) as CaseRecord;
+        done(note ? { ...record, note } : record);
+      } else {
+        done({ case: c.name, engine, error: `child failed (${note || (signal ? `killed by ${signal}` : `exit status ${code}`)})` });
+      }
+    });
+  });
 }
 
 function findScipyScript(): string | undefined {
@@ -103,7 +138,6 @@ function runScipy(script: string, mtxDir: string, timeoutMs: number): ScipyRecor
   return JSON.parse(last) as ScipyRecord;
 }
 
-type Outcome = CaseRecord | { case: string; engine: EngineName; error: string };
 
 function ok(r: Outcome | undefined): r is CaseRecord {
   return r !== undefined && 'dof' in r && r.error === undefined;
@@ -119,7 +153,7 @@ function checkText(r: CaseRecord): string {
   return bad.length === 0 ? 'ok' : bad.join(' ');
 }
 
-function parentMain(argv: readonly string[]): void {
+async function parentMain(argv: readonly string[]): Promise<void> {
   const flags = parseFlags(argv);
   const selected = selectCases(flags.cases, flags.quick);
   const timeoutMs = flags.timeoutMinutes * 60_000;
@@ -139,7 +173,7 @@ function parentMain(argv: readonly string[]): void {
     for (const c of selected) {
       const mtxDir = haveScipy ? join(work, c.name) : undefined;
       progress(`${c.name}: sparse`);
-      const r = runChild(c, 'sparse', work, mtxDir, timeoutMs);
+      const r = await runChild(c, 'sparse', work, mtxDir, timeoutMs);
       sparse.set(c.name, r);
       if (!ok(r)) progress(`${c.name}: ${r.error}`);
       if (haveScipy && mtxDir && existsSync(join(mtxDir, 'K.mtx'))) {
@@ -149,9 +183,9 @@ function parentMain(argv: readonly string[]): void {
       }
       if (c.family === 'dense') {
         progress(`${c.name}: our dense solver`);
-        dense.set(c.name, runChild(c, 'dense', work, undefined, timeoutMs));
+        dense.set(c.name, await runChild(c, 'dense', work, undefined, timeoutMs));
         progress(`${c.name}: ml-matrix dense route`);
-        ml.set(c.name, runChild(c, 'mlmatrix', work, undefined, timeoutMs));
+        ml.set(c.name, await runChild(c, 'mlmatrix', work, undefined, timeoutMs));
       }
     }
   } finally {
@@ -164,12 +198,14 @@ function parentMain(argv: readonly string[]): void {
   lines.push(`load average (1 min) at start ${load0.toFixed(2)}, at end ${loadavg()[0].toFixed(2)}: wall times grow with other load on the machine, CPU times much less.`);
   lines.push('');
   const sparseCases = selected.filter((c) => c.family !== 'dense');
-  const header = ['case', 'DOF', 'assembly s', 'analyse s', 'factor s', 'iter s', 'verify s', 'total s', 'solve cpu s', 'nnz(L)', 'peak MiB', 'check', 'SciPy s', 'time ours/SciPy', 'cpu ours/SciPy', 'SciPy MiB', 'mem ours/SciPy', 'max rel Δλ'];
+  const header = ['case', 'DOF', 'assembly s', 'analyse s', 'factor s', 'iter s', 'verify s', 'total s', 'solve cpu s', 'nnz(L)', 'peak MiB', 'check', 'SciPy s', 'time ours/SciPy', 'cpu ours/SciPy', 'SciPy MiB', 'mem ours/SciPy', 'solver Δmem ours/SciPy', 'max rel Δλ'];
   const rows: string[][] = [];
+  const failures: string[] = [];
   for (const c of selected) {
     const r = sparse.get(c.name);
     if (!ok(r)) {
-      rows.push([c.name, 'error: ' + (r?.error ?? 'not run')]);
+      rows.push([c.name, ...header.slice(1).map(() => '–')]);
+      failures.push(`${c.name}: ${r?.error ?? 'not run'}`);
       continue;
     }
     const s = scipy.get(c.name);
@@ -194,10 +230,14 @@ function parentMain(argv: readonly string[]): void {
       sOk ? fmtRatio(r.solveCpuSeconds / s.cpu_seconds) : 'n/a',
       sOk ? fmtMiB(sPeak) : 'n/a',
       sOk ? fmtRatio(oPeak / sPeak) : 'n/a',
+      sOk && s.solve_peak_mib !== null && s.rss_before_solve_mib !== null
+        ? fmtRatio((r.solvePeakMiB - r.rssBeforeSolveMiB) / (s.solve_peak_mib - s.rss_before_solve_mib))
+        : 'n/a',
       sOk ? fmtSci(maxRelativeDifference(r.eigenvalues, s.eigenvalues)) : 'n/a',
     ]);
   }
   lines.push(renderTable(header, rows));
+  for (const f of failures) lines.push(`FAILED ${f}`);
   lines.push('');
   lines.push('Times in seconds, wall clock. assembly = validateModel + assemble; total = assembly + solve call (analyse + factor + iter + verify: residuals, orthogonality, Sturm count).');
   lines.push('peak MiB: whole child process (getrusage maxRSS), model generation included.');
@@ -206,8 +246,9 @@ function parentMain(argv: readonly string[]): void {
     lines.push('SciPy: eigsh(K, 20, M, sigma=0) (ARPACK + SuperLU), one thread, on the same K and M read from Matrix Market;');
     lines.push('  SciPy s = eigsh call only; time ours/SciPy = our solve call / SciPy s (assembly excluded: SciPy gets K and M ready);');
     lines.push('  cpu ours/SciPy: the same with process CPU time (ours counts the Node GC helper threads too);');
-    lines.push('  SciPy MiB and mem ours/SciPy compare peak resident memory during the solve alone, K and M loaded, on both sides');
-    lines.push('  (high-water mark reset before the solve); max rel Δλ = max over the 20 modes of |λ_ours − λ_SciPy| / λ_SciPy.');
+    lines.push('  SciPy MiB and mem ours/SciPy compare peak resident memory during the solve alone, K and M loaded (our model collected first), on both sides');
+    lines.push('  (high-water mark reset before the solve); solver Δmem = the same peaks minus the resident memory just before the solve');
+    lines.push('  (the memory the solver itself added; Node keeps freed pages of the model resident); max rel Δλ = max over the 20 modes of |λ_ours − λ_SciPy| / λ_SciPy.');
     const failed = [...scipy.entries()].filter(([, v]) => 'error' in v);
     for (const [n, v] of failed) lines.push(`  SciPy failed on ${n}: ${(v as { error: string }).error}`);
   } else {
@@ -232,8 +273,9 @@ function parentMain(argv: readonly string[]): void {
   if (denseCases.length > 0) {
     lines.push('');
     lines.push('Dense baselines (plane frames sized to the DOF count), solve call in seconds (wall) from the same K and M;');
-    lines.push("ours dense = solve(K, M, { method: 'dense' }); ml-matrix = Cholesky of M, EigenvalueDecomposition of L⁻¹KL⁻ᵀ, modes x = L⁻ᵀy:");
-    const dh = ['case', 'DOF', 'ours sparse s', 'ours dense s', 'ml-matrix s', 'ml-matrix/ours sparse', 'ml-matrix/ours dense', 'same, cpu: ml-matrix/ours sparse', 'SciPy s', 'max rel Δλ ml-matrix'];
+    lines.push("ours dense = solve(K, M, { method: 'dense' }); ml-matrix = Cholesky of M, EigenvalueDecomposition of L⁻¹KL⁻ᵀ, modes x = L⁻ᵀy;");
+    lines.push('each "warm" column is a second identical solve call in the same child (JIT compiled), and the ratio of ml-matrix to it:');
+    const dh = ['case', 'DOF', 'ours sparse s', 'warm', 'ours dense s', 'warm', 'ml-matrix s', 'ml-matrix/ours sparse', 'warm', 'ml-matrix/ours dense', 'warm', 'cpu: ml-matrix/ours sparse', 'SciPy s', 'max rel Δλ ml-matrix'];
     const drows: string[][] = [];
     for (const c of denseCases) {
       const s = sparse.get(c.name);
@@ -245,10 +287,14 @@ function parentMain(argv: readonly string[]): void {
         c.name,
         fmtCount(dof),
         ok(s) ? fmtSeconds(s.seconds.solve) : 'error',
+        ok(s) ? fmtSeconds(s.warmSolveSeconds) : '–',
         ok(d) ? fmtSeconds(d.seconds.solve) : 'error',
+        ok(d) ? fmtSeconds(d.warmSolveSeconds) : '–',
         ok(m) ? fmtSeconds(m.seconds.solve) : 'error',
         ok(s) && ok(m) ? fmtRatio(m.seconds.solve / s.seconds.solve) : '–',
+        ok(s) && ok(m) ? fmtRatio(m.seconds.solve / s.warmSolveSeconds) : '–',
         ok(d) && ok(m) ? fmtRatio(m.seconds.solve / d.seconds.solve) : '–',
+        ok(d) && ok(m) ? fmtRatio(m.seconds.solve / d.warmSolveSeconds) : '–',
         ok(s) && ok(m) ? fmtRatio(m.solveCpuSeconds / s.solveCpuSeconds) : '–',
         sp && !('error' in sp) ? fmtSeconds(sp.seconds) : 'n/a',
         ok(s) && ok(m) ? fmtSci(maxRelativeDifference(s.eigenvalues, m.eigenvalues)) : '–',
@@ -259,6 +305,9 @@ function parentMain(argv: readonly string[]): void {
     for (const e of errs) lines.push(`  ${e.case} (${e.engine}): ${e.error}`);
   }
 
+  for (const m of [sparse, dense, ml]) {
+    for (const r of m.values()) if ('note' in r && r.note) lines.push(`NOTE ${r.case} (${r.engine}): ${r.note}`);
+  }
   const report = lines.join('\n');
   process.stdout.write(report + '\n');
 
@@ -288,4 +337,9 @@ function parentMain(argv: readonly string[]): void {
 
 const argv = process.argv.slice(2);
 if (argv[0] === '--child') childMain(argv.slice(1));
-else parentMain(argv);
+else {
+  parentMain(argv).catch((e: unknown) => {
+    process.stderr.write(`bench: ${e instanceof Error ? e.message : String(e)}\n`);
+    process.exitCode = 1;
+  });
+}

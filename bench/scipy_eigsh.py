@@ -4,7 +4,7 @@ ARPACK in shift-invert mode (eigsh with sigma = 0 factorizes K with SuperLU).
 Usage: python3 scipy_eigsh.py K.mtx M.mtx COUNT
 Prints one JSON object: seconds (eigsh only, wall), cpu_seconds (eigsh, process CPU), read_seconds, maxrss_mib (whole process),
 solve_peak_mib (peak resident memory during eigsh, K and M loaded; null when the high-water mark
-cannot be reset), n, nnz_lower, eigenvalues (ascending).
+cannot be reset), rss_before_solve_mib (resident memory just before eigsh), n, nnz_lower, eigenvalues (ascending).
 """
 import json
 import resource
@@ -17,6 +17,17 @@ def high_water_mib():
         with open("/proc/self/status") as f:
             for line in f:
                 if line.startswith("VmHWM:"):
+                    return int(line.split()[1]) / 1024.0
+    except OSError:
+        pass
+    return None
+
+
+def current_rss_mib():
+    try:
+        with open("/proc/self/status") as f:
+            for line in f:
+                if line.startswith("VmRSS:"):
                     return int(line.split()[1]) / 1024.0
     except OSError:
         pass
@@ -45,6 +56,7 @@ def main():
     read_seconds = time.perf_counter() - t0
 
     can_reset = reset_peak()
+    rss_before = current_rss_mib()
     t0 = time.perf_counter()
     c0 = time.process_time()
     vals = eigsh(K, count, M, sigma=0, return_eigenvectors=True)[0]
@@ -58,6 +70,7 @@ def main():
         "read_seconds": read_seconds,
         "maxrss_mib": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0,
         "solve_peak_mib": solve_peak,
+        "rss_before_solve_mib": rss_before,
         "n": int(K.shape[0]),
         "nnz_lower": int((K.nnz + K.shape[0]) // 2),
         "eigenvalues": sorted(float(v) for v in np.real(vals)),
