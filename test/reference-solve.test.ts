@@ -4,7 +4,8 @@
  * tolerance of the closed-form answers (sources: each case's `source`, checked in
  * reference-cases.test.ts).
  *
- * Buckling: eigenframe has no library geometric stiffness yet, so this file builds the
+ * Buckling: the library's bucklingAnalysis is checked against the closed forms, and against an
+ * independent geometric stiffness that this file builds: the
  * consistent geometric stiffness of a plane beam under axial compression P,
  * P/(30L)·[36 3L −36 3L; 3L 4L² −3L −L²; −36 −3L 36 −3L; 3L −L² −3L 4L²] over (v1, θ1, v2, θ2)
  * (Przemieniecki, Theory of Matrix Structural Analysis (1968), stability chapter, from memory), with P the case's
@@ -15,6 +16,7 @@ import { referenceCases } from '../src/reference/catalogue';
 import { compareValues } from '../src/reference/compare';
 import { validateModel } from '../src/model/read';
 import { assemble } from '../src/model/assemble';
+import { bucklingAnalysis } from '../src/modal/buckling';
 import { solve } from '../src/eigen/solve';
 import { CooBuilder, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import type { AssembledModel, Model } from '../src/model/types';
@@ -67,16 +69,24 @@ describe('reference catalogue through assemble + solve, at the stated meshes', (
     }
   });
 
-  it.each(bucklingCases.map((c) => [c.id, c] as const))('%s meets its stated tolerance (consistent geometric stiffness)', (_id, c) => {
+  it.each(bucklingCases.map((c) => [c.id, c] as const))('%s meets its stated tolerance (library linear buckling)', (_id, c) => {
+    const model = validateModel(JSON.parse(JSON.stringify(c.build(c.mesh))));
+    const loads = c.loads!(c.mesh).map((l) => ({ node: l.node, dof: l.dof, value: l.force }));
+    const r = bucklingAnalysis(model, loads, { count: c.count });
+    const cmp = compareValues(c.exact(c.count), Array.from(r.loadFactors), c.tolerance);
+    expect(cmp.maxRelativeError, c.id).toBeLessThanOrEqual(c.tolerance);
+    expect(cmp.passed).toBe(true);
+  });
+
+  it.each(bucklingCases.map((c) => [c.id, c] as const))('%s: library buckling agrees with the consistent geometric stiffness built here', (_id, c) => {
     const model = validateModel(JSON.parse(JSON.stringify(c.build(c.mesh))));
     const asm = assemble(model);
     const [load] = c.loads!(c.mesh);
     expect(load.node).toBe(model.nodes[model.nodes.length - 1].id);
     const KG = geometricStiffness(model, asm, -load.force);
     const r = solve(asm.stiffness, KG, { count: c.count, method: 'dense' });
-    const cmp = compareValues(c.exact(c.count), Array.from(r.eigenvalues), c.tolerance);
-    expect(cmp.maxRelativeError, c.id).toBeLessThanOrEqual(c.tolerance);
-    expect(cmp.passed).toBe(true);
+    const lib = bucklingAnalysis(asm, [{ node: load.node, dof: load.dof, value: load.force }], { count: c.count });
+    for (let k = 0; k < c.count; k++) expect(lib.loadFactors[k] / r.eigenvalues[k]).toBeCloseTo(1, 8);
   });
 
   it('a coarser mesh misses the tolerance (the stated mesh is not needlessly loose)', () => {
