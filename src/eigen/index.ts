@@ -1,7 +1,7 @@
 /** Generalized symmetric eigensolvers K x = λ M x; knows nothing about structures. */
 export type { EigenMethod, EigenResult, SturmCheck } from './types';
 export { solve, SOLVE_DEFAULTS, DENSE_CROSSOVER, FREE_SHIFT, ZERO_SHIFT_PIVOT_RATIO, MAX_ROUNDS, RANGE_BLOCK, type SolveOptions, type SolveMethod } from './solve';
-export { ShiftedPencil, SHIFT_NUDGE, SHIFT_ATTEMPTS, type ShiftedFactor } from './pencil';
+export { ShiftedPencil, SHIFT_NUDGE, SHIFT_ATTEMPTS, FACTOR_MEMORY_LIMIT, factorBytes, type ShiftedFactor } from './pencil';
 export { assertAccepted, RESIDUAL_LIMIT, ORTHOGONALITY_LIMIT } from './accept';
 export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions, type DenseEigenInput, type DenseSymmetric } from './dense/index';
 export { lanczos, LANCZOS_DEFAULTS, type LanczosOptions, type LanczosResult, type ProgressCallback } from './lanczos';

@@ -24,6 +24,30 @@ export interface ShiftedFactor {
   readonly shift: number;
 }
 
+/**
+ * Largest factor the solvers allocate by default: 8 GiB. The symbolic analysis knows the factor's
+ * size exactly, so a model too large for the machine is refused with that estimate before any
+ * numeric work; pass `maxFactorBytes` to allow more where the memory exists.
+ */
+export const FACTOR_MEMORY_LIMIT = 8 * 2 ** 30;
+
+/** Bytes the numeric factor of `sym` will hold: L's entries, D, and the solve workspace. */
+export function factorBytes(sym: SymbolicFactor): number {
+  return 8 * (sym.nnzL + 3 * sym.n);
+}
+
+function checkFactorMemory(sym: SymbolicFactor, limit: number): void {
+  if (!(limit > 0)) throw new ArgumentError(`maxFactorBytes is ${limit}; pass a positive number of bytes`, 'maxFactorBytes');
+  const need = factorBytes(sym);
+  if (need > limit) {
+    const gib = (b: number) => `${(b / 2 ** 30).toFixed(2)} GiB`;
+    throw new FactorizationError(
+      `the factor of this ${sym.n}-DOF problem needs about ${gib(need)} (nnz(L) = ${sym.nnzL.toExponential(3)} with the ${sym.ordering} ordering), above the limit of ${gib(limit)}; reduce the model, or raise maxFactorBytes where the machine has the memory`,
+      'memory',
+    );
+  }
+}
+
 export class ShiftedPencil {
   readonly n: number;
   readonly K: SymmetricCsc;
@@ -47,10 +71,12 @@ export class ShiftedPencil {
    * @param M - mass, n × n symmetric positive semidefinite lower CSC
    * @param options.symbolic - an analysis of the union pattern of K and M to reuse
    * @param options.ordering - ordering for a new analysis (ignored with `symbolic`)
+   * @param options.maxFactorBytes - refuse (FactorizationError, path `memory`) before any numeric
+   *   factorization when the factor would need more bytes @defaultValue FACTOR_MEMORY_LIMIT
    * @throws ArgumentError (path `M`) when the sizes differ, (path `symbolic`) when the given analysis
    *   does not fit the union pattern
    */
-  constructor(K: SymmetricCsc, M: SymmetricCsc, options: { symbolic?: SymbolicFactor; ordering?: OrderingName | Int32Array } = {}) {
+  constructor(K: SymmetricCsc, M: SymmetricCsc, options: { symbolic?: SymbolicFactor; ordering?: OrderingName | Int32Array; maxFactorBytes?: number } = {}) {
     if (K.n !== M.n) throw new ArgumentError(`M is ${M.n} × ${M.n} but K is ${K.n} × ${K.n}; pass matrices of one size`, 'M');
     this.n = K.n;
     this.K = K;
@@ -70,6 +96,7 @@ export class ShiftedPencil {
       this.symbolic = analyse(this.union.pattern, options.ordering === undefined ? {} : { ordering: options.ordering });
       this.msAnalyse = performance.now() - t0;
     }
+    checkFactorMemory(this.symbolic, options.maxFactorBytes ?? FACTOR_MEMORY_LIMIT);
     this.values = new Float64Array(nz);
     const dk = diagonal(K);
     const dm = diagonal(M);

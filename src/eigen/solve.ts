@@ -104,6 +104,11 @@ export interface SolveOptions {
    * searched for). @defaultValue true
    */
   verify?: boolean;
+  /**
+   * Largest numeric factor allowed, bytes; larger problems are refused after the symbolic
+   * analysis, with the estimate, before anything large is allocated. @defaultValue FACTOR_MEMORY_LIMIT (8 GiB)
+   */
+  maxFactorBytes?: number;
 }
 
 /** Defaults of {@link SolveOptions} (those that have a fixed value). */
@@ -234,7 +239,7 @@ function solveDense(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'chol
   let sturm: SturmCheck | undefined;
   let pencil: ShiftedPencil | undefined;
   if (o.verify && (m > 0 || o.range)) {
-    pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
+    pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic, maxFactorBytes: o.maxFactorBytes });
     if (o.range) sturm = rangeCheck(pencil, o.range, m);
     else sturm = sturmCheck(pencil, all.eigenvalues, m, first, { window: o.near !== undefined, minimumGap: 1e-9 * pencil.typicalEigenvalue });
   }
@@ -306,7 +311,7 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
   const massive = massiveDofs(M);
   if (!o.range && o.count > massive) throw countError(o.count, massive, n);
   o.onProgress?.('analyse', 0);
-  const pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic });
+  const pencil = new ShiftedPencil(K, M, { ordering: o.ordering, symbolic: o.symbolic, maxFactorBytes: o.maxFactorBytes });
   o.onProgress?.('analyse', 1);
   const run: Run = {
     pencil,
