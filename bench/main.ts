@@ -18,6 +18,7 @@ import type { CaseRecord } from './child';
 import type { EngineName } from './engine';
 import { growthExponent } from './fit';
 import { fmtCount, fmtMiB, fmtRatio, fmtSci, fmtSeconds, maxRelativeDifference, renderTable } from './table';
+import { formatBatchBench, runBatchBench } from './batch';
 
 type Outcome = (CaseRecord & { note?: string }) | { case: string; engine: EngineName; error: string };
 
@@ -333,6 +334,13 @@ async function parentMain(argv: readonly string[]): Promise<void> {
   };
   writeFileSync(join(outDir, 'results.json'), JSON.stringify(json, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
   process.stderr.write(`[bench] wrote ${join(outDir, 'results.json')}\n`);
+
+  // The parameter study across worker threads (speed-up on 1 and on all cores); skipped when
+  // only some cases were asked for.
+  if (flags.cases.length === 0) {
+    progress('parameter study: 200 variants across worker threads');
+    process.stdout.write(`\n${formatBatchBench(await runBatchBench())}\n`);
+  }
 }
 
 const argv = process.argv.slice(2);
