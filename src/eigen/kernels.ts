@@ -6,6 +6,21 @@
  */
 
 /**
+ * xᵀ y over the first n entries.
+ */
+export function dot(x: Float64Array, y: Float64Array, n: number): number {
+  let s0 = 0;
+  let s1 = 0;
+  let i = 0;
+  for (; i + 2 <= n; i += 2) {
+    s0 += x[i] * y[i];
+    s1 += x[i + 1] * y[i + 1];
+  }
+  if (i < n) s0 += x[i] * y[i];
+  return s0 + s1;
+}
+
+/**
  * h[c − c0] ← V[:, c]ᵀ w for c in [c0, c1).
  * @param v - basis, column-major n × (≥ c1)
  * @param n - rows

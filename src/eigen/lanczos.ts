@@ -10,9 +10,10 @@
  *   vector is purified with one implicit OP step, x = y + (β sₘ/θ) vₘ₊₁), so that singular M
  *   (massless DOFs, infinite λ) does not pollute the vectors (Nour-Omid, Parlett, Ericsson &
  *   Jensen 1987, "How to implement the spectral transformation", Math. Comp. 48, §4–5).
- * - Full reorthogonalization by classical Gram–Schmidt done twice ("twice is enough",
- *   Parlett, The Symmetric Eigenvalue Problem, §6.9; Giraud et al. 2005), in blocked dense
- *   kernels over the column-major basis, with M·V kept beside V so no extra M product is needed.
+ * - Full reorthogonalization: the three-term step, then one classical Gram–Schmidt pass over
+ *   the whole basis in blocked dense kernels, and a second pass only when the DGKS test asks
+ *   for it (Parlett, The Symmetric Eigenvalue Problem, §6.9 and §13.1; Daniel, Gragg, Kaufman
+ *   & Stewart 1976; Giraud et al. 2005).
  * - Thick restart: keep the k best Ritz vectors and continue from the residual vector; the
  *   projected matrix becomes an arrowhead plus a tridiagonal (Wu & Simon 2000, "Thick-restart
  *   Lanczos method for large symmetric eigenvalue problems", SIAM J. Matrix Anal. Appl. 22(2),
@@ -22,13 +23,14 @@
  *   eigenvalue is found by a second run (Grimes, Lewis & Simon 1994, §3.3).
  *
  * Storage: the basis is one column-major Float64Array n × (L + ncv + 1) (L locked columns,
- * ncv Lanczos columns and the next residual vector), its M-image another; every work buffer is
- * allocated before the iteration.
+ * ncv Lanczos columns and the next residual vector); M·V is not kept (coefficients come from
+ * Vᵀ(M w)), only M v of the current and next Lanczos vectors. Every work buffer is allocated
+ * before the iteration.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { Operator } from '../linalg/operator';
 import { AbortedError, ArgumentError } from '../errors';
-import { combineColumnsInPlace, dotColumns, SeededRandom, subtractColumns } from './kernels';
+import { combineColumnsInPlace, dot, dotColumns, SeededRandom, subtractColumns } from './kernels';
 
 /** Progress report: phase name and fraction done in [0, 1]. */
 export type ProgressCallback = (phase: string, fraction: number) => void;
@@ -80,9 +82,9 @@ export const LANCZOS_DEFAULTS = {
 export interface LanczosResult {
   /** Converged eigenvalues λ = σ + 1/θ in rad²/s², ascending, length m (≥ count unless `exhausted` or not converged). */
   readonly eigenvalues: Float64Array;
-  /** Ritz vectors, column-major n × m, M-normalized and purified. */
+  /** Ritz vectors, column-major n × m, M-normalized and purified (a view into the solver's basis buffer). */
   readonly vectors: Float64Array;
-  /** M times the vectors, column-major n × m. */
+  /** M times the vectors, column-major n × m (may be a view into the same buffer as `vectors`). */
   readonly massVectors: Float64Array;
   /** Estimated ‖OP x − θ x‖_M / |θ| per returned pair. */
   readonly errorEstimates: Float64Array;
@@ -97,6 +99,8 @@ export interface LanczosResult {
   readonly steps: number;
   /** Thick restarts performed. */
   readonly restarts: number;
+  /** Lanczos steps whose Gram–Schmidt needed the second pass (DGKS test failed). */
+  readonly secondPasses: number;
 }
 
 /**
@@ -131,8 +135,13 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   // ---- workspace, sized once ----
   const cols = L + ncv + 1;
   const V = new Float64Array(n * cols);
-  const MV = new Float64Array(n * cols);
   const w = new Float64Array(n);
+  const mw = new Float64Array(n); // M w before a Gram–Schmidt pass
+  // M v_j of the current Lanczos vector and M v_{j+1} of the next one, swapped after each step.
+  // M·V is not stored: the Gram–Schmidt coefficients are h = Vᵀ(M w), one sparse product per
+  // pass, and the Ritz combination at a restart then touches V only.
+  let mvCur = new Float64Array(n);
+  let mvNext = new Float64Array(n);
   const h = new Float64Array(cols);
   const T = new Float64Array(ncv * ncv); // column-major, symmetric
   const tmp = new Float64Array(Math.max(ncv, 256 * ncv));
@@ -142,56 +151,47 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
 
   if (L > 0) {
     V.set(o.locked!.subarray(0, n * L));
-    for (let c = 0; c < L; c++) mass.apply(V.subarray(c * n, (c + 1) * n), MV.subarray(c * n, (c + 1) * n));
   }
 
   // Column views, made once so that the Lanczos steps allocate nothing.
   const vCol = Array.from({ length: cols }, (_, c) => V.subarray(c * n, (c + 1) * n));
-  const mvCol = Array.from({ length: cols }, (_, c) => MV.subarray(c * n, (c + 1) * n));
   const checkAbort = (): void => {
     if (o.signal?.aborted) throw new AbortedError('the eigen solve was aborted through its AbortSignal; run it again without aborting to get the modes', 'signal');
   };
 
   /**
-   * Orthogonalizes w (in place) twice against basis columns [0, upto) in the M-inner product.
-   * Returns the summed coefficient of column `track` (or 0 when track < 0).
+   * Orthogonalizes w (in place) twice against basis columns [0, upto) in the M-inner product
+   * (start vectors only; the Lanczos steps use the conditional second pass below).
    */
-  let projectedSquare = 0; // Σ h² of the first pass: the part of ‖w‖²_M inside the basis
-  const reorthogonalize = (upto: number, track: number): number => {
-    let tracked = 0;
+  let secondPasses = 0; // Lanczos steps that needed the second Gram–Schmidt pass
+  const reorthogonalize = (upto: number): void => {
     for (let pass = 0; pass < 2; pass++) {
-      dotColumns(MV, n, 0, upto, w, h);
-      if (track >= 0) tracked += h[track];
-      if (pass === 0) {
-        projectedSquare = 0;
-        for (let c = 0; c < upto; c++) projectedSquare += h[c] * h[c];
-      }
+      mass.apply(w, mw);
+      dotColumns(V, n, 0, upto, mw, h);
       subtractColumns(V, n, 0, upto, h, w);
     }
-    return tracked;
   };
 
   /**
    * Puts a new start vector, M-orthogonal to columns [0, c), into column c: OP applied to a
    * seeded random vector (so it lies in the range of OP). Returns false when nothing is left
-   * (its M-norm collapsed under orthogonalization three times in a row).
+   * (its M-norm collapsed under orthogonalization three times in a row). Its M-image goes to `z`.
    */
-  const newStartVector = (c: number): boolean => {
-    const z = mvCol[c];
+  const newStartVector = (c: number, z: Float64Array): boolean => {
     const v = vCol[c];
     for (let attempt = 0; attempt < 3; attempt++) {
       // Orthogonalize the random vector before applying OP: its image then carries no large
       // component along basis eigenvectors with huge θ (shift next to an eigenvalue), so the
       // collapse test below measures only what is genuinely new.
       rng.fill(w);
-      reorthogonalize(c, -1);
+      reorthogonalize(c);
       mass.apply(w, v);
       inverse.apply(v, w);
       steps++;
       mass.apply(w, z);
       let before = 0;
       for (let i = 0; i < n; i++) before += w[i] * z[i];
-      reorthogonalize(c, -1);
+      reorthogonalize(c);
       mass.apply(w, z);
       let after = 0;
       for (let i = 0; i < n; i++) after += w[i] * z[i];
@@ -207,7 +207,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     return false;
   };
 
-  let exhausted = !newStartVector(L);
+  let exhausted = !newStartVector(L, mvCur);
   let m = exhausted ? 0 : ncv; // Lanczos columns in use at the last restart
   let k = 0; // kept Ritz vectors
   let betaLast = 0;
@@ -222,21 +222,55 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     m = ncv;
     for (let j = k; j < ncv; j++) {
       checkAbort();
-      inverse.apply(mvCol[L + j], w); // w = OP v_j = (K − σM)⁻¹ M v_j
+      inverse.apply(mvCur, w); // w = OP v_j = (K − σM)⁻¹ M v_j
       steps++;
-      T[j * ncv + j] = reorthogonalize(L + j + 1, L + j);
-      const z = mvCol[L + j + 1];
-      mass.apply(w, z);
+      // Orthogonalization of w against the basis (Paige's three-term recurrence followed by
+      // full reorthogonalization, Parlett, The Symmetric Eigenvalue Problem, §13.1 and §6.9):
+      // 1. the local step removes α v_j and β_{j−1} v_{j−1}, which carry nearly all of w when
+      //    the Ritz values converge (not needed right after a restart: that step couples to
+      //    every kept Ritz vector, so it goes straight to the full passes);
+      // 2. one classical Gram–Schmidt pass over the whole basis, h = Vᵀ(M w), w −= V h;
+      // 3. a second pass only when the first removed more than half of ‖w‖²_M — the DGKS test
+      //    with η = 1/√2 (Daniel, Gragg, Kaufman & Stewart 1976, Math. Comp. 30, §4; the test
+      //    of ARPACK's dsaitr). Giraud, Langou, Rozložník & van den Eshof 2005 (Numer. Math.
+      //    101) show a pass under that test keeps the basis orthogonal to working precision.
+      //    ‖w‖²_M before the pass is Σh² + ‖w‖²_M after it (Pythagoras, w ⟂_M the basis), so the
+      //    test needs only the mass product z = M w that β needs anyway.
+      const z = mvNext;
+      const upto = L + j + 1;
+      let alpha = 0;
+      let removed = 0; // ‖w‖²_M taken out so far: the part of ‖OP v_j‖²_M inside the basis
+      if (j > k) {
+        alpha = dot(mvCur, w, n);
+        const betaPrev = T[(j - 1) * ncv + j];
+        const vj = vCol[L + j];
+        const vp = vCol[L + j - 1];
+        for (let i = 0; i < n; i++) w[i] -= alpha * vj[i] + betaPrev * vp[i];
+        removed = alpha * alpha + betaPrev * betaPrev;
+      }
       let bb = 0;
-      for (let i = 0; i < n; i++) bb += w[i] * z[i];
+      for (let pass = 0; pass < 2; pass++) {
+        if (pass === 0) mass.apply(w, mw);
+        dotColumns(V, n, 0, upto, pass === 0 ? mw : z, h); // z = M w after the previous pass
+        alpha += h[L + j];
+        let hh = 0;
+        for (let c = 0; c < upto; c++) hh += h[c] * h[c];
+        removed += hh;
+        subtractColumns(V, n, 0, upto, h, w);
+        mass.apply(w, z);
+        bb = dot(w, z, n);
+        if (hh <= bb) break; // ‖w_after‖² ≥ ½‖w_before‖²: no second pass needed
+        if (pass === 0) secondPasses++;
+      }
+      T[j * ncv + j] = alpha;
       let beta = Math.sqrt(Math.max(bb, 0));
-      // ‖OP v_j‖_M ≈ √(Σh² + β²); an invariant subspace shows as β ≪ that norm. The new
+      // ‖OP v_j‖²_M ≈ removed + β²; an invariant subspace shows as β ≪ that norm. The new
       // vector is then drawn afresh (in the range of OP) and the coupling set to zero.
-      if (beta <= 1e-12 * Math.sqrt(projectedSquare + bb)) beta = 0;
+      if (beta <= 1e-12 * Math.sqrt(removed + bb)) beta = 0;
       const v = vCol[L + j + 1];
       if (beta === 0) {
         // Invariant subspace: continue with a fresh start vector, coupling zero.
-        if (!newStartVector(L + j + 1)) {
+        if (!newStartVector(L + j + 1, z)) {
           exhausted = true;
           m = j + 1;
           break;
@@ -252,6 +286,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
         T[j * ncv + j + 1] = beta;
         T[(j + 1) * ncv + j] = beta;
       } else betaLast = beta;
+      mvNext = mvCur;
+      mvCur = z;
     }
     if (exhausted) betaLast = 0;
 
@@ -283,9 +319,9 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     const sel = new Float64Array(m * k);
     for (let c = 0; c < k; c++) sel.set(S.subarray(order[c] * m, order[c] * m + m), c * m);
     combineColumnsInPlace(V, n, L, m, sel, m, k, tmp);
-    combineColumnsInPlace(MV, n, L, m, sel, m, k, tmp);
     V.copyWithin((L + k) * n, (L + m) * n, (L + m + 1) * n);
-    MV.copyWithin((L + k) * n, (L + m) * n, (L + m + 1) * n);
+    // The residual vector moves to column k; its M-image stays in mvCur. The kept Ritz vectors
+    // need no M-image: OP is applied only to the newest Lanczos vector.
     T.fill(0);
     for (let c = 0; c < k; c++) {
       const i = order[c];
@@ -319,26 +355,28 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   }
   if (p > 0) {
     combineColumnsInPlace(V, n, L, m, sel, m, p, tmp);
-    combineColumnsInPlace(MV, n, L, m, sel, m, p, tmp);
   }
-  const vectors = V.slice(L * n, (L + p) * n);
-  const massVectors = MV.slice(L * n, (L + p) * n);
+  // The results are views into the basis buffer (no copy: on large models the fresh pages of
+  // a copy cost as much as a restart). Mass vectors take the columns after the vectors when
+  // they fit, else a buffer of their own.
+  const vectors = V.subarray(L * n, (L + p) * n);
+  const massVectors = L + 2 * p <= cols ? V.subarray((L + p) * n, (L + 2 * p) * n) : new Float64Array(p * n);
   const vm = vCol[L + m];
-  const mvm = mvCol[L + m];
+  // Purify every vector first: the residual vector vm may lie where the mass vectors go.
+  if (!exhausted) {
+    for (let c = 0; c < p; c++) {
+      const i = accepted[c];
+      const g = (betaLast * S[i * m + m - 1]) / theta[i];
+      if (g === 0) continue;
+      const x = vectors.subarray(c * n, (c + 1) * n);
+      for (let r = 0; r < n; r++) x[r] += g * vm[r];
+    }
+  }
   for (let c = 0; c < p; c++) {
-    const i = accepted[c];
     const x = vectors.subarray(c * n, (c + 1) * n);
     const mx = massVectors.subarray(c * n, (c + 1) * n);
-    const g = exhausted ? 0 : (betaLast * S[i * m + m - 1]) / theta[i];
-    if (g !== 0) {
-      for (let r = 0; r < n; r++) {
-        x[r] += g * vm[r];
-        mx[r] += g * mvm[r];
-      }
-    }
-    let nn = 0;
-    for (let r = 0; r < n; r++) nn += x[r] * mx[r];
-    const inv = 1 / Math.sqrt(nn);
+    mass.apply(x, mx);
+    const inv = 1 / Math.sqrt(dot(x, mx, n));
     for (let r = 0; r < n; r++) {
       x[r] *= inv;
       mx[r] *= inv;
@@ -353,5 +391,6 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     exhausted,
     steps,
     restarts,
+    secondPasses,
   };
 }
