@@ -193,6 +193,45 @@ function validate(K: SymmetricCsc, M: SymmetricCsc, o: Resolved): void {
     throw new ArgumentError(`tolerance is ${o.tolerance}; pass a number in (0, 1e-8) so that results can meet the 1e-8 residual target`, 'tolerance');
   }
   if (!Number.isInteger(o.seed)) throw new ArgumentError(`seed is ${o.seed}; pass an integer`, 'seed');
+  checkMassSemidefinite(M);
+}
+
+/**
+ * Necessary conditions for M to be positive semidefinite, O(nnz): every diagonal entry ≥ 0, and
+ * every 2 × 2 principal minor ≥ 0, i.e. |m_ij| ≤ √(m_ii m_jj) (up to round-off). A mass matrix
+ * that breaks them has a negative eigenvalue, and K x = λ M x then has modes of negative "mass"
+ * that no solver here can return correctly; refusing beats a quiet wrong answer. (A complete
+ * test needs a factorization; the Sturm counts and the M-orthonormality check catch the rest.)
+ */
+function checkMassSemidefinite(M: SymmetricCsc): void {
+  const { n, colPtr, rowIdx, values } = M;
+  const d = new Float64Array(n);
+  let maxDiag = 0;
+  for (let j = 0; j < n; j++) {
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const v = values[p];
+      if (!Number.isFinite(v)) throw new ArgumentError(`entry (${rowIdx[p]}, ${j}) is ${v}; a mass matrix holds finite numbers`, `M(${rowIdx[p]}, ${j})`);
+      if (rowIdx[p] === j) d[j] = v;
+    }
+    if (d[j] < 0) {
+      throw new ArgumentError(`diagonal entry ${d[j]} of row ${j} is negative, so M is not positive semidefinite; masses and inertias must be ≥ 0 (check the sign)`, `M(${j}, ${j})`);
+    }
+    if (d[j] > maxDiag) maxDiag = d[j];
+  }
+  const slack = 1e-14 * maxDiag;
+  for (let j = 0; j < n; j++) {
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const i = rowIdx[p];
+      if (i === j) continue;
+      const bound = Math.sqrt(d[i] * d[j]) * (1 + 1e-8) + slack;
+      if (Math.abs(values[p]) > bound) {
+        throw new ArgumentError(
+          `|m(${i}, ${j})| = ${Math.abs(values[p])} exceeds √(m(${i}, ${i})·m(${j}, ${j})) = ${Math.sqrt(d[i] * d[j])}, so M is not positive semidefinite; check the coupling mass between these DOFs`,
+          `M(${i}, ${j})`,
+        );
+      }
+    }
+  }
 }
 
 /** Number of DOFs whose row of M is not entirely zero: an upper bound on the finite eigenvalues. */
