@@ -158,6 +158,25 @@ function parseInteger(text: string, a: number, b: number): number {
 
 type Format = 'coordinate' | 'array';
 type Field = 'real' | 'integer';
+
+/**
+ * The value of one entry, text[a, b), as its field requires; `fail(line, message)` throws the
+ * reader's line-numbered error for a value that is not an integer, not a number, or not finite.
+ */
+function entryValue(text: string, a: number, b: number, field: Field, line: number, fail: (at: number, message: string) => never): number {
+  if (field === 'integer') {
+    const v = parseInteger(text, a, b);
+    if (Number.isNaN(v)) fail(line, `value "${text.slice(a, b)}" is not an integer, as field "integer" requires; write an integer or declare field "real"`);
+    return v;
+  }
+  const v = parseReal(text, a, b);
+  if (Number.isNaN(v)) {
+    if (isNonFiniteWord(text, a, b)) fail(line, `value "${text.slice(a, b)}" is not finite; every entry must be a finite number`);
+    fail(line, `value "${text.slice(a, b)}" is not a number; write a decimal such as 2.5e+06`);
+  }
+  if (!Number.isFinite(v)) fail(line, `value "${text.slice(a, b)}" overflows to infinity; every entry must be a finite number`);
+  return v;
+}
 type Symmetry = 'general' | 'symmetric';
 
 /**
@@ -380,18 +399,7 @@ export function readMatrixMarket(text: string, source = 'matrix.mtx', options: R
       p = skipBlanks(e);
       e = tokenEnd(p);
       if (p === e) fail(line, `entry "${text.slice(lineStart, lineEnd).trim()}" has 2 numbers, expected 3 (row column value)`);
-      let v: number;
-      if (field === 'integer') {
-        v = parseInteger(text, p, e);
-        if (Number.isNaN(v)) fail(line, `value "${text.slice(p, e)}" is not an integer, as field "integer" requires; write an integer or declare field "real"`);
-      } else {
-        v = parseReal(text, p, e);
-        if (Number.isNaN(v)) {
-          if (isNonFiniteWord(text, p, e)) fail(line, `value "${text.slice(p, e)}" is not finite; every entry must be a finite number`);
-          fail(line, `value "${text.slice(p, e)}" is not a number; write a decimal such as 2.5e+06`);
-        }
-        if (!Number.isFinite(v)) fail(line, `value "${text.slice(p, e)}" overflows to infinity; every entry must be a finite number`);
-      }
+      const v = entryValue(text, p, e, field, line, fail);
       p = skipBlanks(e);
       if (p < lineEnd) {
         fail(line, `entry "${text.slice(lineStart, lineEnd).trim()}" has more than 3 numbers, expected "row column value"${text.charCodeAt(p) === PERCENT ? '' : ' (complex values are not supported)'}`);
@@ -514,18 +522,7 @@ export function readMatrixMarket(text: string, source = 'matrix.mtx', options: R
         if (text.charCodeAt(p) === PERCENT) break;
         const e = tokenEnd(p);
         if (count === total) fail(line, `more values than the ${total} a ${n} × ${n} ${symmetry} array holds (size on line ${sizeLine}); remove the extra values or correct the size`);
-        let v: number;
-        if (field === 'integer') {
-          v = parseInteger(text, p, e);
-          if (Number.isNaN(v)) fail(line, `value "${text.slice(p, e)}" is not an integer, as field "integer" requires; write an integer or declare field "real"`);
-        } else {
-          v = parseReal(text, p, e);
-          if (Number.isNaN(v)) {
-            if (isNonFiniteWord(text, p, e)) fail(line, `value "${text.slice(p, e)}" is not finite; every entry must be a finite number`);
-            fail(line, `value "${text.slice(p, e)}" is not a number; write a decimal such as 2.5e+06`);
-          }
-          if (!Number.isFinite(v)) fail(line, `value "${text.slice(p, e)}" overflows to infinity; every entry must be a finite number`);
-        }
+        const v = entryValue(text, p, e, field, line, fail);
         dense[i + j * n] = v;
         lineOf[i + j * n] = line;
         count++;
