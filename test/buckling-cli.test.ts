@@ -4,7 +4,8 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseArgs } from '../src/cli/args';
-import { BUCKLING_SPEC, parseLoads, runBuckling } from '../src/cli/commands/buckling';
+import { BUCKLING_SPEC, runBuckling } from '../src/cli/commands/buckling';
+import { parseNodalLoads as parseLoads } from '../src/cli/loads';
 import { ArgumentError, ModelError } from '../src/errors';
 import { bisect } from './model-helpers';
 

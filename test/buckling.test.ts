@@ -2,7 +2,8 @@
 import { describe, expect, it } from 'vitest';
 import { ArgumentError, ModelError } from '../src/errors';
 import { symmetricMultiply, toDenseArray } from '../src/linalg/sparse/symmetric';
-import { axialForces, bucklingAnalysis, BUCKLING_DEFAULTS, nodalLoadVector } from '../src/modal/buckling';
+import { axialForces, bucklingAnalysis, BUCKLING_DEFAULTS } from '../src/modal/buckling';
+import { nodalLoadVector } from '../src/model/loads';
 import { assemble } from '../src/model/assemble';
 import { parseModel, validateModel } from '../src/model/read';
 import { readFileSync } from 'node:fs';

@@ -57,7 +57,7 @@ describe('harmonic response', () => {
     const ratios = [0, 0.3, 0.9, 1, 1.1, 2.5, 6];
     const p0 = 1000;
     const r = harmonicResponse(a, {
-      load: [{ at: { node: 'a', dof: 'ux' }, value: p0 }],
+      load: [{ node: 'a', dof: 'ux', value: p0 }],
       at: [{ node: 'a', dof: 'ux' }],
       frequencies: ratios.map((x) => x * fn),
       damping: { kind: 'constant', ratio: zeta },
@@ -125,7 +125,7 @@ describe('harmonic response', () => {
   it('names the bad response DOF and the missing load', () => {
     const a = allModes(sdofModel(1e5, 100));
     try {
-      harmonicResponse(a, { load: [{ at: 0, value: 1 }], at: [{ node: 'zz', dof: 'ux' }], frequencies: [1] });
+      harmonicResponse(a, { load: [{ node: 'a', dof: 'ux', value: 1 }], at: [{ node: 'zz', dof: 'ux' }], frequencies: [1] });
       expect.unreachable();
     } catch (e) {
       expect(e).toBeInstanceOf(ArgumentError);
@@ -133,10 +133,10 @@ describe('harmonic response', () => {
       expect((e as ArgumentError).message).toContain('"zz"');
     }
     try {
-      harmonicResponse(a, { load: [{ at: { node: 'a', dof: 'uy' }, value: 1 }], at: [0], frequencies: [1] });
+      harmonicResponse(a, { load: [{ node: 'a', dof: 'uy', value: 1 }], at: [0], frequencies: [1] });
       expect.unreachable();
     } catch (e) {
-      expect((e as ArgumentError).path).toBe('load[0]');
+      expect((e as ArgumentError).path).toBe('load[0].dof');
     }
     expect(HARMONIC_DEFAULTS.damping).toEqual({ kind: 'constant', ratio: 0.01 });
   });

@@ -15,7 +15,7 @@ const p0 = 500; // N
 function sdofRun(method: TransientMethod, zeta: number, history: { times: number[]; values: number[] }, dt: number, duration: number) {
   const a = allModes(sdofModel(k, m));
   return transientResponse(a, {
-    loads: [{ pattern: [{ at: 0, value: p0 }], history }],
+    loads: [{ pattern: [{ node: 'a', dof: 'ux', value: p0 }], history }],
     duration,
     timeStep: dt,
     at: [0],
@@ -130,7 +130,7 @@ describe('transient response of several modes', () => {
     const expected = cum.findIndex((c) => c >= 0.9) + 1;
     expect(expected).toBeGreaterThan(0);
     const r = transientResponse(a, {
-      loads: [{ pattern: [{ at: { node: 'f4', dof: 'ux' }, value: 1000 }], history: { times: [0, 1], values: [1, 1] } }],
+      loads: [{ pattern: [{ node: 'f4', dof: 'ux', value: 1000 }], history: { times: [0, 1], values: [1, 1] } }],
       duration: 1,
       timeStep: 0.01,
       at: [{ node: 'f4', dof: 'ux' }],
@@ -144,7 +144,7 @@ describe('transient response of several modes', () => {
 
   it('names the bad option', () => {
     const a = allModes(sdofModel(k, m));
-    const base = { loads: [{ pattern: [{ at: 0, value: 1 }], history: { times: [0, 1], values: [1, 1] } }], duration: 1, timeStep: 0.1, at: [0] };
+    const base = { loads: [{ pattern: [{ node: 'a', dof: 'ux', value: 1 }], history: { times: [0, 1], values: [1, 1] } }], duration: 1, timeStep: 0.1, at: [0] };
     const path = (o: object): string => {
       try {
         transientResponse(a, { ...base, ...o } as never);
@@ -155,7 +155,7 @@ describe('transient response of several modes', () => {
       return 'no error';
     };
     expect(path({ timeStep: 0.3 })).toBe('timeStep');
-    expect(path({ loads: [{ pattern: [{ at: 0, value: 1 }], history: { times: [0, 2, 1], values: [0, 1, 0] } }] })).toBe('loads[0].history.times[2]');
+    expect(path({ loads: [{ pattern: [{ node: 'a', dof: 'ux', value: 1 }], history: { times: [0, 2, 1], values: [0, 1, 0] } }] })).toBe('loads[0].history.times[2]');
     expect(path({ method: 'euler' })).toBe('method');
     expect(path({ at: [{ node: 'q', dof: 'ux' }] })).toBe('at[0]');
   });

@@ -68,7 +68,10 @@ describe('eigenframe screen', () => {
 
 describe('eigenframe response', () => {
   it('sweep at a deck node: natural frequencies merged into the sweep, JSON', () => {
+    // The same NODE:DOF:VALUE syntax as `buckling --load`: two loads of 0.5 N equal the default 1 N.
+    const split = JSON.parse(response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '8:11:4', '--load', 'nb3:uz:0.5,nb3:uz:0.5', '--json').stdout);
     const j = JSON.parse(response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '8:11:4', '--json').stdout);
+    expect(split.responses[0]).toEqual(j.responses[0]);
     expect(j.format).toBe('eigenframe-harmonic/1');
     expect(j.frequencies.length).toBeGreaterThan(4);
     expect(j.frequencies[0]).toBe(8);
@@ -93,6 +96,8 @@ describe('eigenframe response', () => {
     expect(pathOf(() => response(model, '--node', 'nb0', '--dof', 'uz', '--sweep', '1:2:3'))).toBe('--node'); // supported DOF
     expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '3:2:3'))).toBe('--sweep');
     expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--load', 'nb3:uz'))).toBe('--load');
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--load', 'zz:uz:100'))).toBe('--load');
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--load', 'nb0:uz:100'))).toBe('--load'); // supported DOF
     expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--damping', '2'))).toBe('--damping');
     expect(pathOf(() => response(model, '--walker', '2', '--node', 'nb3'))).toBe('--node');
     expect(pathOf(() => response(model))).toBe('response');

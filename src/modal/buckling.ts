@@ -43,23 +43,10 @@ import { ArgumentError, FactorizationError, ModelError, VerificationError } from
 import type { LdltFactor, OrderingName } from '../linalg/ldlt/types';
 import type { SymmetricCsc } from '../linalg/sparse/symmetric';
 import { assemble } from '../model/assemble';
-import { DOF_SLOT, SPACE_DOFS } from '../model/dofs';
 import { assembleGeometric } from '../model/geometric';
 import { assertNoMechanism } from '../model/mechanisms';
-import type { AssembledModel, DofName, Model } from '../model/types';
-
-/** One concentrated load of a load case. */
-export interface NodalLoad {
-  /** Node id. */
-  readonly node: string;
-  /** DOF the load acts along (a force on ux, uy, uz; a moment on rx, ry, rz). */
-  readonly dof: DofName;
-  /** N on translations, N·m on rotations; sign along the global axis. */
-  readonly value: number;
-}
-
-/** A reference load case: nodal loads, applied together. */
-export type LoadCase = readonly NodalLoad[];
+import { nodalLoadVector, type LoadCase } from '../model/loads';
+import type { AssembledModel, Model } from '../model/types';
 
 /** Options of {@link bucklingAnalysis}. */
 export interface BucklingOptions {
@@ -126,49 +113,6 @@ export interface BucklingResult {
 }
 
 /**
- * Load vector over the free DOFs of an assembled model.
- * @param asm - the assembled model
- * @param loads - nodal loads (N, N·m); loads on the same DOF add up
- * @returns length n (free DOFs), N and N·m
- * @throws ArgumentError (path `loads[i].node`, `loads[i].dof`, `loads[i].value`, `loads`) for an
- *   unknown node, a DOF the space lacks, a DOF that is supported or that the node does not have,
- *   a non-finite value, or an empty / all-zero load case
- */
-export function nodalLoadVector(asm: AssembledModel, loads: LoadCase): Float64Array {
-  const model = asm.model;
-  if (!Array.isArray(loads) || loads.length === 0) {
-    throw new ArgumentError('the load case is empty; give at least one nodal load { node, dof, value }', 'loads');
-  }
-  const index = new Map<string, number>();
-  model.nodes.forEach((nd, i) => index.set(nd.id, i));
-  const allowed = SPACE_DOFS[model.space];
-  const dofMap = asm.dofMap!;
-  const f = new Float64Array(asm.stiffness.n);
-  let any = false;
-  loads.forEach((l, i) => {
-    const where = `loads[${i}]`;
-    const node = index.get(l?.node);
-    if (node === undefined) throw new ArgumentError(`node "${l?.node}" is not in the model; use the id of one of its ${model.nodes.length} nodes`, `${where}.node`);
-    if (!allowed.includes(l.dof)) throw new ArgumentError(`DOF "${l.dof}" does not exist in a ${model.space} model; use one of ${allowed.join(', ')}`, `${where}.dof`);
-    if (!Number.isFinite(l.value)) throw new ArgumentError(`value is ${l.value}; give a finite load in N (N·m on rotations)`, `${where}.value`);
-    const g = dofMap[6 * node + DOF_SLOT[l.dof as DofName]];
-    if (g < 0) {
-      const supported = (model.supports ?? []).some((s) => s.node === l.node && s.fixed.includes(l.dof));
-      throw new ArgumentError(
-        supported
-          ? `DOF ${l.dof} of node "${l.node}" is supported, so a load there goes straight into the support; load a free DOF`
-          : `node "${l.node}" has no ${l.dof} DOF (no element, spring or mass there uses it); load a DOF the node has`,
-        `${where}.dof`,
-      );
-    }
-    f[g] += l.value;
-    if (l.value !== 0) any = true;
-  });
-  if (!any) throw new ArgumentError('every load of the case is zero; give a non-zero reference load', 'loads');
-  return f;
-}
-
-/**
  * Axial force of every element from the free-DOF displacements u: N = EA/L · (u_b − u_a)·e.
  * @param asm - the assembled model
  * @param u - displacements over the free DOFs, length n, m (rad)
@@ -225,6 +169,7 @@ export function bucklingAnalysis(input: Model | AssembledModel, loads: LoadCase,
   const K = asm.stiffness;
   const n = K.n;
   const f = nodalLoadVector(asm, loads);
+  if (f.every((v) => v === 0)) throw new ArgumentError('every load of the case is zero; give a non-zero reference load', 'loads');
 
   // ---- static state: one analysis of the union pattern of K and K_G serves everything ----
   const ts = performance.now();

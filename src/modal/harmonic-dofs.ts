@@ -1,6 +1,6 @@
 /**
  * Inputs shared by the responses by modal superposition (harmonic, spectrum, transient): naming
- * DOFs by node and DOF name, building load vectors, and taking the modes used.
+ * DOFs by node and DOF name, and taking the modes used. Loads are nodal loads (model/loads).
  */
 import { ArgumentError } from '../errors';
 import type { AssembledModel, DofName } from '../model/types';
@@ -8,13 +8,6 @@ import type { ModalAnalysis } from './analysis-types';
 
 /** A free DOF: its index in the assembled system, or its node id and DOF name. */
 export type DofRef = number | { readonly node: string; readonly dof: DofName };
-
-/** A force (N) or moment (N·m) at one DOF. */
-export interface PointLoad {
-  readonly at: DofRef;
-  /** N on translations, N·m on rotations. */
-  readonly value: number;
-}
 
 /**
  * Free DOF index of each reference.
@@ -50,20 +43,6 @@ export function resolveDofs(assembled: AssembledModel, refs: readonly DofRef[], 
     out[k] = i;
   });
   return out;
-}
-
-/**
- * Load vector (length n, N and N·m) from point loads; loads at one DOF add up.
- * @throws ArgumentError (path `${path}[k]`) as {@link resolveDofs}, or for a non-finite value
- */
-export function loadVector(assembled: AssembledModel, loads: readonly PointLoad[], path: string): Float64Array {
-  const idx = resolveDofs(assembled, loads.map((l) => l.at), path);
-  const f = new Float64Array(assembled.dofs.length);
-  loads.forEach((l, k) => {
-    if (!Number.isFinite(l.value)) throw new ArgumentError(`load value ${l.value} is not a finite number (N, or N·m on a rotation)`, `${path}[${k}].value`);
-    f[idx[k]] += l.value;
-  });
-  return f;
 }
 
 /** The modes a response uses: the first m of an analysis. */

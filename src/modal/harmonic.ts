@@ -18,12 +18,13 @@
 import { ArgumentError } from '../errors';
 import type { ModalAnalysis } from './analysis-types';
 import { dampingRatios, type Damping } from './damping';
-import { loadVector, modalLoads, resolveDofs, responseModes, type DofRef, type PointLoad } from './harmonic-dofs';
+import { nodalLoadVector, type NodalLoad } from '../model/loads';
+import { modalLoads, resolveDofs, responseModes, type DofRef } from './harmonic-dofs';
 
 /** Options of {@link harmonicResponse}. */
 export interface HarmonicOptions {
-  /** Load amplitude F: a vector of length n (N, N·m), or point loads. Required. */
-  load: Float64Array | readonly PointLoad[];
+  /** Load amplitude F: a vector of length n (N, N·m), or nodal loads `{ node, dof, value }`. Required. */
+  load: Float64Array | readonly NodalLoad[];
   /** DOFs whose response is wanted. Required, at least one. */
   at: readonly DofRef[];
   /** Excitation frequencies Ω/2π, Hz, each ≥ 0 ({@link frequencySweep} makes a sweep). Required. */
@@ -110,7 +111,7 @@ export function harmonicResponse(analysis: ModalAnalysis, options: HarmonicOptio
   const o = { ...HARMONIC_DEFAULTS, ...options };
   const assembled = analysis.assembled;
   if (!o.at || o.at.length === 0) throw new ArgumentError('no response DOF given; name at least one { node, dof }', 'at');
-  if (!o.load) throw new ArgumentError('no load given; give a load vector or point loads', 'load');
+  if (!o.load) throw new ArgumentError('no load given; give a load vector or nodal loads { node, dof, value }', 'load');
   if (!o.frequencies || o.frequencies.length === 0) throw new ArgumentError('no excitation frequency given; give frequencies in Hz or a sweep', 'frequencies');
   const freqs = Float64Array.from(o.frequencies);
   freqs.forEach((f, k) => {
@@ -118,7 +119,7 @@ export function harmonicResponse(analysis: ModalAnalysis, options: HarmonicOptio
   });
   const modes = responseModes(analysis, o.count);
   const zeta = dampingRatios(o.damping, modes.angular);
-  const F = o.load instanceof Float64Array ? o.load : loadVector(assembled, o.load, 'load');
+  const F = o.load instanceof Float64Array ? o.load : nodalLoadVector(assembled, o.load, 'load');
   const g = modalLoads(modes, F, 'load');
   const idx = resolveDofs(assembled, o.at, 'at');
   const { n, m, angular, vectors } = modes;

@@ -19,7 +19,7 @@ export {
   type ScreeningResult, type ModeScreening, type BandCheck, type ScreeningVerdict, type ScreeningCoverage, type ScreeningOptions,
 } from './screening';
 export { dampingRatios, rayleighDamping, type Damping } from './damping';
-export { resolveDofs, loadVector, responseModes, modalLoads, type DofRef, type PointLoad, type ResponseModes } from './harmonic-dofs';
+export { resolveDofs, responseModes, modalLoads, type DofRef, type ResponseModes } from './harmonic-dofs';
 export { harmonicResponse, frequencySweep, HARMONIC_DEFAULTS, type HarmonicOptions, type HarmonicResult, type DofHarmonicResponse, type SweepOptions } from './harmonic';
 export { pedestrianResponse, PEDESTRIAN_DEFAULTS, type PedestrianOptions, type PedestrianResult } from './harmonic-pedestrian';
 export {
@@ -32,8 +32,8 @@ export {
   type TransientOptions, type TransientResult, type TransientLoad, type LoadHistory, type TransientMethod, type DofTransientResponse,
 } from './transient';
 export {
-  bucklingAnalysis, nodalLoadVector, axialForces, BUCKLING_DEFAULTS, BUCKLING_DENSE_LIMIT, BUCKLING_RESIDUAL_LIMIT, BUCKLING_MAX_ROUNDS, AXIAL_NOISE,
-  type NodalLoad, type LoadCase, type BucklingOptions, type BucklingResult,
+  bucklingAnalysis, axialForces, BUCKLING_DEFAULTS, BUCKLING_DENSE_LIMIT, BUCKLING_RESIDUAL_LIMIT, BUCKLING_MAX_ROUNDS, AXIAL_NOISE,
+  type BucklingOptions, type BucklingResult,
 } from './buckling';
 export {
   eigenvalueSensitivity, groupSensitivity, rankMembers, resolveGroup, REPEATED_GAP,

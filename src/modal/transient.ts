@@ -20,7 +20,8 @@ import { ArgumentError } from '../errors';
 import type { DofName } from '../model/types';
 import type { ModalAnalysis } from './analysis-types';
 import { dampingRatios, type Damping } from './damping';
-import { loadVector, resolveDofs, responseModes, type DofRef, type PointLoad } from './harmonic-dofs';
+import { nodalLoadVector, type NodalLoad } from '../model/loads';
+import { resolveDofs, responseModes, type DofRef } from './harmonic-dofs';
 
 /** A piecewise-linear history: g(t) linear between (times[k], values[k]); zero outside. */
 export interface LoadHistory {
@@ -32,8 +33,8 @@ export interface LoadHistory {
 
 /** A spatial pattern and its history. */
 export interface TransientLoad {
-  /** Pattern: vector of length n (N, N·m) or point loads. */
-  readonly pattern: Float64Array | readonly PointLoad[];
+  /** Pattern: vector of length n (N, N·m) or nodal loads `{ node, dof, value }`. */
+  readonly pattern: Float64Array | readonly NodalLoad[];
   readonly history: LoadHistory;
 }
 
@@ -166,7 +167,7 @@ export function transientResponse(analysis: ModalAnalysis, options: TransientOpt
   if (!(o.massTarget > 0 && o.massTarget <= 1)) throw new ArgumentError(`${o.massTarget} is not in (0, 1]; give the share of mass to capture, e.g. 0.9`, 'massTarget');
   const patterns = o.loads.map((l, k) => {
     checkHistory(l.history, `loads[${k}].history`);
-    const f = l.pattern instanceof Float64Array ? l.pattern : loadVector(assembled, l.pattern, `loads[${k}].pattern`);
+    const f = l.pattern instanceof Float64Array ? l.pattern : nodalLoadVector(assembled, l.pattern, `loads[${k}].pattern`);
     if (f.length !== n || !f.every((v: number) => Number.isFinite(v))) throw new ArgumentError(`pattern must hold ${n} finite numbers, got length ${f.length}`, `loads[${k}].pattern`);
     return f;
   });

@@ -8,4 +8,5 @@ export { numberDofs, DOF_NAMES, DOF_SLOT, SPACE_DOFS, type DofNumbering } from '
 export { assemble } from './assemble';
 export { findMechanisms, assertNoMechanism, MECHANISM_DEFAULTS, type Mechanism, type MechanismOptions } from './mechanisms';
 export { assembleGeometric } from './geometric';
+export { nodalLoadVector, type NodalLoad, type LoadCase } from './loads';
 export { elementMatrices, fillElementMatrices, type ElementMatrices, type FrameProps } from './element-matrices';

@@ -7,8 +7,9 @@ import type { CommandSpec, ParsedArgs } from '../args';
 import { readText, writeFilesAtomically } from '../files';
 import type { CommandOutput } from '../output';
 import { parseModel } from '../../model/read';
-import type { DofName } from '../../model/types';
-import { bucklingAnalysis, type BucklingResult, type NodalLoad } from '../../modal/buckling';
+import type { NodalLoad } from '../../model/loads';
+import { bucklingAnalysis, type BucklingResult } from '../../modal/buckling';
+import { loadErrorAsOption, parseNodalLoads } from '../loads';
 import { ENGINEERING_CAUTION } from '../../io/caution';
 
 export const BUCKLING_SPEC: CommandSpec = {
@@ -33,51 +34,16 @@ export const BUCKLING_SPEC: CommandSpec = {
   ],
 };
 
-const DOFS: readonly string[] = ['ux', 'uy', 'uz', 'rx', 'ry', 'rz'];
-
-/**
- * Parses `NODE:DOF:VALUE[,NODE:DOF:VALUE...]` into nodal loads.
- * @param text - the option's value
- * @param option - the option name used in errors, e.g. `--load`
- * @throws ArgumentError (path = option) naming the malformed item
- */
-export function parseLoads(text: string, option = '--load'): NodalLoad[] {
-  const items = text.split(',').map((s) => s.trim());
-  return items.map((item, i) => {
-    const which = items.length > 1 ? `load ${i + 1} ("${item}")` : `"${item}"`;
-    const b = item.lastIndexOf(':');
-    const a = b > 0 ? item.lastIndexOf(':', b - 1) : -1;
-    if (a <= 0) throw new ArgumentError(`${which} is not NODE:DOF:VALUE; write e.g. top:uy:-1000`, option);
-    const node = item.slice(0, a);
-    const dof = item.slice(a + 1, b);
-    const raw = item.slice(b + 1);
-    if (!DOFS.includes(dof)) throw new ArgumentError(`${which} names DOF "${dof}"; use one of ${DOFS.join(', ')}`, option);
-    const value = Number(raw);
-    if (raw.trim() === '' || !Number.isFinite(value)) throw new ArgumentError(`${which} has value "${raw}", not a finite number; give the load in N (N·m on rotations)`, option);
-    return { node, dof: dof as DofName, value };
-  });
-}
-
-/** Re-labels errors about `loads[i]…` with the option they came from. */
-function asOption(e: unknown, option: string, loads: readonly NodalLoad[]): unknown {
-  if (e instanceof ArgumentError && e.path.startsWith('loads')) {
-    const m = /^loads\[(\d+)\]/.exec(e.path);
-    const which = m ? ` (load ${Number(m[1]) + 1}, ${loads[Number(m[1])].node}:${loads[Number(m[1])].dof})` : '';
-    return new ArgumentError(`${e.detail}${which}`, option);
-  }
-  return e;
-}
-
 /** Runs the analysis for the CLI, with load errors named by `option`. */
 export function runBucklingAnalysis(modelText: string, source: string, loadText: string, option: string, count: number | undefined, method: string): BucklingResult {
   const model = parseModel(modelText, source);
-  const loads = parseLoads(loadText, option);
+  const loads = parseNodalLoads(loadText, option);
   const methods = ['auto', 'dense', 'lanczos'];
   if (!methods.includes(method)) throw new ArgumentError(`"${method}" is not a method for buckling; use one of ${methods.join(', ')}`, '--method');
   try {
     return bucklingAnalysis(model, loads, { ...(count !== undefined ? { count } : {}), method: method as 'auto' });
   } catch (e) {
-    throw asOption(e, option, loads);
+    throw loadErrorAsOption(e, 'loads', option, loads);
   }
 }
 
@@ -146,7 +112,7 @@ export function runBuckling(args: ParsedArgs): CommandOutput {
   if (path === undefined) throw new ArgumentError('no model given; write "eigenframe buckling MODEL.json --load NODE:DOF:VALUE"', 'buckling');
   if (o.load === undefined) throw new ArgumentError('the reference load case is missing; add --load NODE:DOF:VALUE (several separated by commas)', '--load');
   if (o.shapes && !o.json) throw new ArgumentError('goes with --json; add --json or remove --shapes', '--shapes');
-  const loads = parseLoads(String(o.load));
+  const loads = parseNodalLoads(String(o.load));
   const r = runBucklingAnalysis(readText(path, 'model file'), path, String(o.load), '--load', o.count === undefined ? undefined : Number(o.count), o.method === undefined ? 'auto' : String(o.method));
   const text = o.json ? JSON.stringify(bucklingJsonObject(r, loads, Boolean(o.shapes)), null, 2) + '\n' : formatBucklingText(r, loads);
   if (o.output !== undefined) {

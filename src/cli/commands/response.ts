@@ -15,12 +15,13 @@ import { pedestrianResponse } from '../../modal/harmonic-pedestrian';
 import type { Damping } from '../../modal/damping';
 import { formatHarmonicText, formatPedestrianText, harmonicJsonObject, pedestrianJsonObject } from '../../io/report-response';
 import { eigenvalueOf } from '../requests';
+import { loadErrorAsOption, parseNodalLoads } from '../loads';
 
 export const RESPONSE_SPEC: CommandSpec = {
   name: 'response',
   summary: 'steady harmonic response by modal superposition: a frequency sweep, or a walker at a mode’s antinode',
   usage: [
-    'response MODEL.json --node N --dof uz --sweep F1:F2:STEPS [--load NODE:DOF:NEWTONS] [--damping 0.01] [--json]',
+    'response MODEL.json --node N --dof uz --sweep F1:F2:STEPS [--load NODE:DOF:VALUE,...] [--damping 0.01] [--json]',
     'response MODEL.json --walker MODE [--comfort-limit 0.7] [--damping 0.01] [--json]',
   ],
   positionals: { name: 'model file', max: 1 },
@@ -28,7 +29,7 @@ export const RESPONSE_SPEC: CommandSpec = {
     { name: 'node', kind: 'string', value: 'ID', help: 'node whose response is reported (with --dof)' },
     { name: 'dof', kind: 'string', value: 'DOF', help: 'its DOF: ux uy uz (m) or rx ry rz (rad)' },
     { name: 'sweep', kind: 'string', value: 'F1:F2:STEPS', help: 'excitation frequencies from F1 to F2 Hz in STEPS points; the natural frequencies inside are added' },
-    { name: 'load', kind: 'string', value: 'NODE:DOF:N', help: 'harmonic force amplitude, N (N·m on a rotation), comma-separated for several (default: 1 N at the response DOF)' },
+    { name: 'load', kind: 'string', value: 'NODE:DOF:VALUE,...', help: 'harmonic force amplitudes, e.g. m3:uz:280 (N; N·m on a rotation), comma-separated for several (default: 1 N at the response DOF)' },
     { name: 'damping', kind: 'number', value: 'RATIO', help: `damping ratio of every mode, fraction of critical (default ${(HARMONIC_DEFAULTS.damping as { ratio: number }).ratio})` },
     { name: 'walker', kind: 'count', value: 'MODE', help: 'one walker in resonance with mode MODE, at its antinode (700 N × dynamic load factor, from memory)' },
     { name: 'comfort-limit', kind: 'number', value: 'M/S2', help: 'with --walker: acceleration limit from the governing guidance, m/s²' },
@@ -64,16 +65,6 @@ function parseSweep(text: string): [number, number, number] {
   if (!(f2 > f1)) throw new ArgumentError(`F2 = ${f2} Hz is not above F1 = ${f1} Hz`, '--sweep');
   if (!Number.isInteger(steps) || steps < 2 || steps > 100000) throw new ArgumentError(`STEPS = ${steps} is not a whole number from 2 to 100000`, '--sweep');
   return [f1, f2, steps];
-}
-
-function parseLoads(text: string): Array<{ at: { node: string; dof: DofName }; value: number }> {
-  return text.split(',').map((item) => {
-    const parts = item.split(':');
-    if (parts.length !== 3) throw new ArgumentError(`"${item}" is not NODE:DOF:NEWTONS; write e.g. m3:uz:280`, '--load');
-    const value = Number(parts[2]);
-    if (parts[2].trim() === '' || !Number.isFinite(value)) throw new ArgumentError(`"${parts[2]}" is not a force in N`, '--load');
-    return { at: { node: parts[0].trim(), dof: dofName(parts[1].trim(), '--load') }, value };
-  });
 }
 
 /** Runs `response`. */
@@ -123,7 +114,7 @@ export function runResponse(args: ParsedArgs): CommandOutput {
     const at = { node: String(o.node), dof: dofName(String(o.dof), '--dof') };
     const [f1, f2, steps] = parseSweep(String(o.sweep));
     const analysis = modesUpTo(f2);
-    const loads = o.load === undefined ? [{ at, value: 1 }] : parseLoads(String(o.load));
+    const loads = o.load === undefined ? [{ ...at, value: 1 }] : parseNodalLoads(String(o.load));
     const freqs = frequencySweep(f1, f2, steps, { include: analysis.modes.map((m) => m.frequency) });
     let r;
     try {
@@ -131,10 +122,10 @@ export function runResponse(args: ParsedArgs): CommandOutput {
     } catch (e) {
       // Library paths name the option of the library; the user wrote command-line options.
       if (e instanceof ArgumentError && e.path.startsWith('at[')) throw new ArgumentError(e.detail, '--node');
-      if (e instanceof ArgumentError && e.path.startsWith('load[')) throw new ArgumentError(e.detail, o.load === undefined ? '--node' : '--load');
-      throw e;
+      if (o.load === undefined && e instanceof ArgumentError && e.path.startsWith('load')) throw new ArgumentError(e.detail, '--node');
+      throw loadErrorAsOption(e, 'load', '--load', loads);
     }
-    const loadText = loads.map((l) => `${l.value} N at node ${l.at.node} ${l.at.dof}`).join(' + ');
+    const loadText = loads.map((l) => `${l.value} N at node ${l.node} ${l.dof}`).join(' + ');
     const about = { title, load: loadText };
     text = o.json ? JSON.stringify(harmonicJsonObject(r, about), null, 2) + '\n' : formatHarmonicText(r, about);
   }
