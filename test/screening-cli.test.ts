@@ -7,6 +7,7 @@ import { parseArgs } from '../src/cli/args';
 import { runScreen, SCREEN_SPEC, parseBandOption } from '../src/cli/commands/screen';
 import { runResponse, RESPONSE_SPEC } from '../src/cli/commands/response';
 import { ENGINEERING_CAUTION } from '../src/io/caution';
+import { findAll, parseXml } from './svg-helpers';
 
 const model = new URL('../examples/footbridge.json', import.meta.url).pathname;
 const screen = (...argv: string[]) => runScreen(parseArgs(SCREEN_SPEC, argv));
@@ -101,5 +102,25 @@ describe('eigenframe response', () => {
     expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--damping', '2'))).toBe('--damping');
     expect(pathOf(() => response(model, '--walker', '2', '--node', 'nb3'))).toBe('--node');
     expect(pathOf(() => response(model))).toBe('response');
+    expect(pathOf(() => response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:2:3', '--preset', 'walking-vertical'))).toBe('--preset');
+    expect(pathOf(() => response(model, '--walker', '2', '--svg', join(tmpdir(), 'never.svg')))).toBe('--svg');
+  });
+
+  it('--svg writes the acceleration chart with the chosen bands shaded', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'eigenframe-frf-'));
+    try {
+      const file = join(dir, 'frf.svg');
+      const out = response(model, '--node', 'nb3', '--dof', 'uz', '--sweep', '1:12:120', '--svg', file, '--band', 'pump:9:10.5:vertical', '--json');
+      expect(out.stderr).toContain(`chart written to ${file}`);
+      const j = JSON.parse(out.stdout);
+      const root = parseXml(readFileSync(file, 'utf8'));
+      const bands = findAll(root, (e) => e.attrs.class === 'band');
+      expect(bands.map((b) => b.attrs['data-band'])).toEqual(['pump']);
+      const peak = findAll(root, (e) => e.attrs.class === 'peak')[0];
+      const acc: number[] = j.responses[0].acceleration;
+      expect(Number(peak.attrs['data-value'])).toBeCloseTo(Math.max(...acc), 12);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

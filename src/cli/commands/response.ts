@@ -16,12 +16,15 @@ import type { Damping } from '../../modal/damping';
 import { formatHarmonicText, formatPedestrianText, harmonicJsonObject, pedestrianJsonObject } from '../../io/report-response';
 import { eigenvalueOf } from '../requests';
 import { loadErrorAsOption, parseNodalLoads } from '../loads';
+import { screenBands } from './screen';
+import { validateBands } from '../../modal/bands';
+import { frequencyResponseSvg } from '../../io/svg-response';
 
 export const RESPONSE_SPEC: CommandSpec = {
   name: 'response',
   summary: 'steady harmonic response by modal superposition: a frequency sweep, or a walker at a mode’s antinode',
   usage: [
-    'response MODEL.json --node N --dof uz --sweep F1:F2:STEPS [--load NODE:DOF:VALUE,...] [--damping 0.01] [--json]',
+    'response MODEL.json --node N --dof uz --sweep F1:F2:STEPS [--load NODE:DOF:VALUE,...] [--damping 0.01] [--svg FILE] [--json]',
     'response MODEL.json --walker MODE [--comfort-limit 0.7] [--damping 0.01] [--json]',
   ],
   positionals: { name: 'model file', max: 1 },
@@ -34,6 +37,9 @@ export const RESPONSE_SPEC: CommandSpec = {
     { name: 'walker', kind: 'count', value: 'MODE', help: 'one walker in resonance with mode MODE, at its antinode (700 N × dynamic load factor, from memory)' },
     { name: 'comfort-limit', kind: 'number', value: 'M/S2', help: 'with --walker: acceleration limit from the governing guidance, m/s²' },
     { name: 'count', kind: 'count', value: 'N', help: 'superpose the lowest N modes (default: every mode up to twice the highest frequency of interest)' },
+    { name: 'svg', kind: 'file', value: 'FILE', help: 'with --sweep: also write the acceleration curve as an SVG chart, bands shaded, natural frequencies marked' },
+    { name: 'preset', kind: 'string', value: 'NAMES', help: 'with --svg: built-in bands to shade, comma-separated (default: the four walking bands)' },
+    { name: 'band', kind: 'string', value: 'SPECS', help: 'with --svg: bands of your own to shade, comma-separated NAME:F1:F2:DIRECTION' },
     { name: 'json', kind: 'flag', help: 'print one JSON object instead of the report' },
     { name: 'output', kind: 'file', value: 'FILE', help: 'write the report to FILE (all or nothing) instead of standard output' },
     { name: 'help', kind: 'flag', help: 'show this help' },
@@ -76,6 +82,11 @@ export function runResponse(args: ParsedArgs): CommandOutput {
   if (walker && o.sweep !== undefined) throw new ArgumentError('choose a sweep or a walker, not both', '--walker');
   if (!walker && o.sweep === undefined) throw new ArgumentError('say what to compute: --sweep F1:F2:STEPS with --node and --dof, or --walker MODE', 'response');
   if (!walker && o['comfort-limit'] !== undefined) throw new ArgumentError('goes with --walker', '--comfort-limit');
+  for (const opt of ['preset', 'band'] as const) {
+    if (o[opt] !== undefined && o.svg === undefined) throw new ArgumentError('goes with --svg (the bands are shaded on the chart); add --svg FILE', `--${opt}`);
+  }
+  if (walker && o.svg !== undefined) throw new ArgumentError('a chart is drawn for a sweep; use --sweep with --node and --dof, or remove --svg', '--svg');
+  const chartBands = o.svg === undefined ? [] : validateBands(screenBands(o));
   if (walker && (o.node !== undefined || o.dof !== undefined || o.load !== undefined)) {
     throw new ArgumentError('a walker is placed at the antinode of its mode; remove --node, --dof and --load', o.node !== undefined ? '--node' : o.dof !== undefined ? '--dof' : '--load');
   }
@@ -99,6 +110,7 @@ export function runResponse(args: ParsedArgs): CommandOutput {
   };
 
   let text: string;
+  let chart: string | undefined;
   if (walker) {
     const mode = Number(o.walker);
     // Lowest `mode` modes first, to know the mode's frequency; then all up to twice it.
@@ -128,10 +140,15 @@ export function runResponse(args: ParsedArgs): CommandOutput {
     const loadText = loads.map((l) => `${l.value} N at node ${l.node} ${l.dof}`).join(' + ');
     const about = { title, load: loadText };
     text = o.json ? JSON.stringify(harmonicJsonObject(r, about), null, 2) + '\n' : formatHarmonicText(r, about);
+    if (o.svg !== undefined) {
+      chart = frequencyResponseSvg(r, { bands: chartBands, naturalFrequencies: analysis.modes.map((md) => md.frequency), title: `${title ? `${title}: ` : ''}acceleration at node ${at.node} ${at.dof}` });
+    }
   }
-  if (o.output !== undefined) {
-    writeFilesAtomically([{ path: String(o.output), content: text }]);
-    return { stdout: '', stderr: `eigenframe: report written to ${String(o.output)}\n` };
-  }
-  return { stdout: text, stderr: '' };
+  // Report and chart are written together or not at all.
+  const files: Array<{ path: string; content: string; what: string }> = [];
+  if (o.output !== undefined) files.push({ path: String(o.output), content: text, what: 'report' });
+  if (chart !== undefined) files.push({ path: String(o.svg), content: chart + '\n', what: 'chart' });
+  if (files.length > 0) writeFilesAtomically(files);
+  const notes = files.map((f) => `eigenframe: ${f.what} written to ${f.path}\n`).join('');
+  return o.output !== undefined ? { stdout: '', stderr: notes } : { stdout: text, stderr: notes };
 }
