@@ -3,7 +3,7 @@ export type {
   Space, DofName, ElementKind, MassKind, MaterialSpec, SectionSpec, NodeSpec, ElementSpec,
   SupportSpec, SpringSpec, MassSpec, Model, DofInfo, AssembledModel,
 } from './types';
-export { parseModel, validateModel, MODEL_FORMAT, ELEMENT_KINDS, COINCIDENCE_TOLERANCE } from './read';
+export { parseModel, validateModel, MODEL_FORMAT, ELEMENT_KINDS, COINCIDENCE_TOLERANCE, MODEL_LIMITS } from './read';
 export { numberDofs, DOF_NAMES, DOF_SLOT, SPACE_DOFS, type DofNumbering } from './dofs';
 export { assemble } from './assemble';
 export { findMechanisms, assertNoMechanism, MECHANISM_DEFAULTS, type Mechanism, type MechanismOptions } from './mechanisms';

@@ -76,22 +76,75 @@ function str(v: unknown, path: string, what: string): string {
   return v as string;
 }
 
-/** A finite number; `min` "positive" (> 0) or "nonNegative" (≥ 0) or "any". */
-function num(v: unknown, path: string, what: string, unit: string, min: 'positive' | 'nonNegative' | 'any'): number {
-  const need = min === 'positive' ? `a number > 0 (${unit})` : min === 'nonNegative' ? `a number ≥ 0 (${unit})` : `a finite number (${unit})`;
+/**
+ * Physical ranges of the numbers of a model: generous enough that no real structure trips them,
+ * tight enough to catch a wrong unit (a value in mm, g or MPa where m, kg or Pa belong) or
+ * garbage. The reasoning behind each bound is in docs/model-format.md ("Physical ranges").
+ * Lower bounds: E, G, density, A, Iz, Iy, J, Ip, kappa and spring stiffness > 0 (the element
+ * matrices need density > 0: a rigid link gets a small density); point mass and rotary
+ * inertia ≥ 0.
+ */
+export const MODEL_LIMITS = {
+  /** Largest E and G, Pa: admits rigid links of E × 1e8 of steel (2.1e19 Pa). */
+  modulus: 1e20,
+  /** Largest density, kg/m³: 40 × osmium (22,590); a density in g/m³ (steel 7.85e6) is refused. */
+  density: 1e6,
+  /** Largest section area, m² (a solid 100 m × 100 m block). */
+  area: 1e4,
+  /** Largest second moment, torsion constant or polar moment, m⁴ (100 m × 100 m block: 8.3e6). */
+  inertia: 1e8,
+  /** Largest shear correction factor κ (dimensionless; 5/6 for a rectangle, ≈ 0.9 for a circle). */
+  kappa: 1.5,
+  /** Largest |coordinate|, m (about 1.5 × the Earth's radius). */
+  coordinate: 1e7,
+} as const;
+
+/** Where a number must lie besides its sign: an upper bound and the fix to suggest beyond it. */
+interface Bound {
+  /** Largest allowed absolute value (inclusive). */
+  max: number;
+  /** What would fix a value out of range, e.g. "check the units: E is in Pa (steel ≈ 2.1e11)". */
+  fix: string;
+}
+
+/**
+ * A finite number; `min` "positive" (> 0) or "nonNegative" (≥ 0) or "any"; with `bound`, |value|
+ * must also be ≤ bound.max. The message names the value, the allowed range and the fix.
+ */
+function num(v: unknown, path: string, what: string, unit: string, min: 'positive' | 'nonNegative' | 'any', bound?: Bound): number {
+  const base = min === 'positive' ? `a number > 0 (${unit})` : min === 'nonNegative' ? `a number ≥ 0 (${unit})` : `a finite number (${unit})`;
+  let need = base;
+  if (bound) {
+    const max = bound.max >= 1e5 ? bound.max.toExponential() : String(bound.max);
+    need += min === 'any' ? ` with |value| ≤ ${max}` : ` and ≤ ${max}`;
+  }
+  const fix = bound ? `; ${bound.fix}` : '';
   if (v === undefined) fail(path, `${what} is missing; add it as ${need}`);
-  if (typeof v === 'string') fail(path, `${what} is ${describe(v)}; write it as ${need}, without quotes`);
+  if (typeof v === 'string') fail(path, `${what} is ${describe(v)}; write it as ${base}, without quotes`);
   if (typeof v !== 'number') fail(path, `${what} is ${describe(v)}; it must be ${need}`);
   const x = v as number;
-  if (!Number.isFinite(x)) fail(path, `${what} is ${x}; it must be ${need}`);
-  if (min === 'positive' && !(x > 0)) fail(path, `${what} is ${x}; it must be ${need}`);
-  if (min === 'nonNegative' && !(x >= 0)) fail(path, `${what} is ${x}; it must be ${need}`);
+  if (!Number.isFinite(x)) fail(path, `${what} is ${x}; it must be ${need}${fix}`);
+  if (min === 'positive' && !(x > 0)) fail(path, `${what} is ${x}; it must be ${need}${fix}`);
+  if (min === 'nonNegative' && !(x >= 0)) fail(path, `${what} is ${x}; it must be ${need}${fix}`);
+  if (bound && Math.abs(x) > bound.max) fail(path, `${what} is ${x}, outside the physical range; it must be ${need}${fix}`);
   return x;
 }
 
-function optNum(o: Obj, key: string, path: string, what: string, unit: string): number | undefined {
-  return o[key] === undefined ? undefined : num(o[key], `${path}.${key}`, what, unit, 'positive');
+function optNum(o: Obj, key: string, path: string, what: string, unit: string, bound?: Bound): number | undefined {
+  return o[key] === undefined ? undefined : num(o[key], `${path}.${key}`, what, unit, 'positive', bound);
 }
+
+const MODULUS_FIX = (k: 'E' | 'G') =>
+  `check the units: ${k} is in Pa (steel ≈ ${k === 'E' ? '2.1e11' : '8.1e10'} Pa, 1 MPa = 1e6 Pa)${k === 'E' ? '; a rigid link needs no more than E × 1e8 of the members it joins' : ''}`;
+const BOUNDS = {
+  E: { max: MODEL_LIMITS.modulus, fix: MODULUS_FIX('E') },
+  G: { max: MODEL_LIMITS.modulus, fix: MODULUS_FIX('G') },
+  density: { max: MODEL_LIMITS.density, fix: 'check the units: density is in kg/m³ (steel ≈ 7850), and give non-structural mass as point masses in "masses"' },
+  A: { max: MODEL_LIMITS.area, fix: 'check the units: A is in m² (1 cm² = 1e-4 m², 1 mm² = 1e-6 m²)' },
+  inertia: (k: string): Bound => ({ max: MODEL_LIMITS.inertia, fix: `check the units: ${k} is in m⁴ (1 cm⁴ = 1e-8 m⁴, 1 mm⁴ = 1e-12 m⁴)` }),
+  kappa: { max: MODEL_LIMITS.kappa, fix: 'kappa is the shear correction factor κ (5/6 for a rectangle, ≈ 0.9 for a solid circle, ≈ 0.5 for a thin tube), not its reciprocal' },
+  coordinate: { max: MODEL_LIMITS.coordinate, fix: 'check the units: coordinates are in m' },
+} as const;
 
 /** A key that can follow a dot in a JSON path; any other key is written `["key"]`. */
 const IDENTIFIER = /^[A-Za-z_$][\w$]*$/;
@@ -278,10 +331,10 @@ export function validateModel(raw: unknown): Model {
     const o = obj(v, p, `material "${name}"`);
     checkKeys(o, MATERIAL_KEYS, p, `material "${name}"`);
     const m: MaterialSpec = {
-      E: num(o.E, `${p}.E`, `E of material "${name}"`, 'Pa', 'positive'),
-      density: num(o.density, `${p}.density`, `density of material "${name}"`, 'kg/m³', 'positive'),
+      E: num(o.E, `${p}.E`, `E of material "${name}"`, 'Pa', 'positive', BOUNDS.E),
+      density: num(o.density, `${p}.density`, `density of material "${name}"`, 'kg/m³', 'positive', BOUNDS.density),
     };
-    const G = optNum(o, 'G', p, `G of material "${name}"`, 'Pa');
+    const G = optNum(o, 'G', p, `G of material "${name}"`, 'Pa', BOUNDS.G);
     if (G !== undefined) m.G = G;
     materials[name] = m;
   }
@@ -291,12 +344,12 @@ export function validateModel(raw: unknown): Model {
     const p = keyPath('sections', name);
     const o = obj(v, p, `section "${name}"`);
     checkKeys(o, SECTION_KEYS, p, `section "${name}"`);
-    const s: SectionSpec = { A: num(o.A, `${p}.A`, `A of section "${name}"`, 'm²', 'positive') };
+    const s: SectionSpec = { A: num(o.A, `${p}.A`, `A of section "${name}"`, 'm²', 'positive', BOUNDS.A) };
     for (const k of ['Iz', 'Iy', 'J', 'Ip'] as const) {
-      const x = optNum(o, k, p, `${k} of section "${name}"`, 'm⁴');
+      const x = optNum(o, k, p, `${k} of section "${name}"`, 'm⁴', BOUNDS.inertia(k));
       if (x !== undefined) s[k] = x;
     }
-    const kappa = optNum(o, 'kappa', p, `kappa of section "${name}"`, 'dimensionless');
+    const kappa = optNum(o, 'kappa', p, `kappa of section "${name}"`, 'dimensionless', BOUNDS.kappa);
     if (kappa !== undefined) s.kappa = kappa;
     sections[name] = s;
   }
@@ -312,9 +365,9 @@ export function validateModel(raw: unknown): Model {
     const id = str(o.id, `${p}.id`, `id of node ${i}`);
     checkKeys(o, NODE_KEYS, p, `node "${id}"`);
     if (nodeAt.has(id)) fail(`${p}.id`, `node id "${id}" is used twice (nodes[${nodeAt.get(id)}] and nodes[${i}]); give every node its own id`);
-    const x = num(o.x, `${p}.x`, `x of node "${id}"`, 'm', 'any');
-    const y = num(o.y, `${p}.y`, `y of node "${id}"`, 'm', 'any');
-    const z = o.z === undefined ? 0 : num(o.z, `${p}.z`, `z of node "${id}"`, 'm', 'any');
+    const x = num(o.x, `${p}.x`, `x of node "${id}"`, 'm', 'any', BOUNDS.coordinate);
+    const y = num(o.y, `${p}.y`, `y of node "${id}"`, 'm', 'any', BOUNDS.coordinate);
+    const z = o.z === undefined ? 0 : num(o.z, `${p}.z`, `z of node "${id}"`, 'm', 'any', BOUNDS.coordinate);
     if (space === 'plane' && z !== 0) fail(`${p}.z`, `node "${id}" has z = ${z} in a plane model; set z to 0 (or remove it), or make the model "space"`);
     nodeAt.set(id, i);
     nodes.push(space === 'space' ? { id, x, y, z } : { id, x, y });
@@ -375,7 +428,9 @@ export function validateModel(raw: unknown): Model {
     const cb = coord(b);
     const d = [cb[0] - ca[0], cb[1] - ca[1], cb[2] - ca[2]];
     const L = Math.hypot(d[0], d[1], d[2]);
-    if (a === b || L <= tol) fail(`${p}.nodes`, `${who} has zero length (its nodes "${nodes[a].id}" and "${nodes[b].id}" are at the same point); connect two distinct points`);
+    if (a === b || L <= tol) {
+      fail(`${p}.nodes`, `${who} has zero length (its nodes "${nodes[a].id}" and "${nodes[b].id}" are at the same point: length ${L} m, at most ${tol} m = ${COINCIDENCE_TOLERANCE} × the model's extent); connect two distinct points`);
+    }
     const matName = str(o.material, `${p}.material`, `material of ${who}`);
     const mat = materials[matName];
     if (mat === undefined) fail(`${p}.material`, `material "${matName}" of ${who} is not defined; add it to "materials" or correct the name`);
@@ -453,7 +508,7 @@ export function validateModel(raw: unknown): Model {
     checkKeys(o, MASS_KEYS, p, `mass ${i}`);
     const n = nodeRef(o.node, `${p}.node`, `mass ${i}`);
     const who = `the point mass ${i} at node "${nodes[n].id}"`;
-    const m: MassSpec = { node: nodes[n].id, mass: num(o.mass, `${p}.mass`, `mass of ${who}`, 'kg', 'positive') };
+    const m: MassSpec = { node: nodes[n].id, mass: num(o.mass, `${p}.mass`, `mass of ${who}`, 'kg', 'nonNegative') };
     if (o.inertia !== undefined) m.inertia = num(o.inertia, `${p}.inertia`, `inertia of ${who}`, 'kg·m²', 'nonNegative');
     return m;
   });
