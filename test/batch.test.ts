@@ -202,8 +202,10 @@ describe('solveBatch', () => {
       script,
       `const { parentPort } = require('node:worker_threads');
        parentPort.on('message', (job) => {
-         if (job.model === 'die') process.exit(3);
-         parentPort.postMessage({ type: 'result', index: job.index, ok: true, result: { echo: job.model }, symbolicReused: false, ms: 0 });
+         for (const item of job.items) {
+           if (item.model === 'die') process.exit(3);
+           parentPort.postMessage({ type: 'result', index: item.index, ok: true, result: { echo: item.model }, symbolicReused: false, ms: 0 });
+         }
        });
        parentPort.postMessage({ type: 'ready' });`,
     );
@@ -211,6 +213,80 @@ describe('solveBatch', () => {
     expect(results.map((r) => (r.ok ? r.result.echo : r.error.path))).toEqual(['a', 'variants[1]', 'b', 'c', 'variants[4]', 'd']);
     const e = results[1].ok ? undefined : results[1].error;
     expect(e?.message).toMatch(/stopped \(exit code 3\)/);
+  });
+
+  it('a patch study (RFC 7396 merge patches of a base sent once per worker) gives what vary and the serial path give', async () => {
+    const scales = [0.7, 0.9, 1.1, 1.3, 1.5];
+    const chord = footbridge.sections.chord;
+    const patch = (s: number): unknown => ({ title: `chord × ${s}`, sections: { chord: { A: chord.A * s, Iy: (chord.Iy ?? 0) * s * s, Iz: (chord.Iz ?? 0) * s * s, J: (chord.J ?? 0) * s * s } } });
+    // Fixed chunks of 2 and guided chunks, 2 workers; the same study through vary, 1 worker.
+    const byPatch = await solveBatch({ base: footbridgeText, parameters: scales, patch }, { workers: 2, workerFile, count: 6, chunkSize: 2 });
+    const byPatchAuto = await solveBatch({ base: footbridge, parameters: scales, patch }, { workers: 2, workerFile, count: 6 });
+    const byVary = await solveBatch({ base: footbridge, parameters: scales, vary: (b, s: number) => scaledChord(b, s) }, { workers: 1, workerFile, count: 6 });
+    for (const [i, s] of scales.entries()) {
+      // Reference: the serial library path on the whole variant model.
+      const serial = modalAnalysis(validateModel(scaledChord(footbridge, s)), { count: 6 });
+      for (const run of [byPatch, byPatchAuto, byVary]) {
+        const r = run[i];
+        expect(r.index).toBe(i);
+        expect(r.parameter).toBe(s);
+        if (!r.ok) throw new Error(`variant ${i} failed: ${r.error.message}`);
+        expect(r.result.title).toBe(`chord × ${s}`);
+        (r.result.modes as ModeJson[]).forEach((m, j) => expect(relDiff(m.frequency, serial.modes[j].frequency)).toBeLessThan(1e-12));
+      }
+    }
+    // One worker, one pattern: one analysis, every later variant reuses it.
+    expect(byVary.filter((r) => r.ok && r.symbolicReused)).toHaveLength(scales.length - 1);
+  });
+
+  it('returns mode shapes as Float64Array views, equal to the serial shapes', async () => {
+    const models = [planeBeam(10, 'a'), planeBeam(14, 'b')];
+    const results = await solveBatch(models, { workers: 2, workerFile, count: 3, shapes: true });
+    for (const [i, r] of results.entries()) {
+      if (!r.ok) throw new Error(r.error.message);
+      const serial = solveVariant(models[i], { count: 3, shapes: true });
+      if (!serial.ok) throw new Error(serial.error.message);
+      const modes = r.result.modes as Array<{ shape: Float64Array }>;
+      const ref = serial.result.modes as Array<{ shape: number[] }>;
+      expect(r.result.dofs).toEqual(serial.result.dofs);
+      modes.forEach((m, j) => {
+        expect(m.shape).toBeInstanceOf(Float64Array);
+        expect(m.shape).toHaveLength(r.result.dofCount as number);
+        m.shape.forEach((v, k) => expect(Math.abs(v - ref[j].shape[k])).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(ref[j].shape[k]))));
+      });
+    }
+  });
+
+  it('a worker that dies mid-chunk fails its current variant only; the rest of its chunk is solved elsewhere', async () => {
+    const script = join(dir, 'dying-chunk-worker.cjs');
+    writeFileSync(
+      script,
+      `const { parentPort } = require('node:worker_threads');
+       parentPort.on('message', (job) => {
+         for (const item of job.items) {
+           if (item.model === 'die') process.exit(5);
+           parentPort.postMessage({ type: 'result', index: item.index, ok: true, result: { echo: item.model, size: job.items.length }, symbolicReused: false, ms: 0 });
+         }
+       });
+       parentPort.postMessage({ type: 'ready' });`,
+    );
+    const input = ['a', 'b', 'die', 'c', 'd', 'e', 'f', 'g', 'h'];
+    const results = await solveBatch(input, { workers: 2, workerFile: script, chunkSize: 4 });
+    expect(results.map((r) => (r.ok ? r.result.echo : r.error.path))).toEqual(['a', 'b', 'variants[2]', 'c', 'd', 'e', 'f', 'g', 'h']);
+    // Chunks of 4 really were sent (the first chunk held a, b, die, c).
+    expect(results[0].ok && results[0].result.size).toBe(4);
+  });
+
+  it('rejects a study with both or neither of patch and vary, a non-JSON base text for patch, and a bad chunkSize', async () => {
+    const both = { base: footbridge, parameters: [1], patch: () => ({}), vary: (b: unknown) => b } as unknown as unknown[];
+    await expect(solveBatch(both, { workerFile })).rejects.toMatchObject({ name: 'ArgumentError', path: 'variants' });
+    await expect(solveBatch({ base: footbridge, parameters: [1] } as unknown as unknown[], { workerFile })).rejects.toMatchObject({ name: 'ArgumentError', path: 'variants' });
+    await expect(solveBatch({ base: '{ "format": ', parameters: [1], patch: () => ({}) }, { workerFile })).rejects.toMatchObject({ name: 'ArgumentError', path: 'variants.base' });
+    for (const chunkSize of [0, 1.5, -2, 'big']) {
+      await expect(solveBatch([planeBeam(2, 'x')], { workerFile, chunkSize: chunkSize as number })).rejects.toMatchObject({ name: 'ArgumentError', path: 'chunkSize' });
+    }
+    await expect(solveBatch({ base: { ...footbridge, note: () => 1 }, parameters: [1], patch: () => ({}) }, { workerFile })).rejects.toMatchObject({ name: 'ArgumentError', path: 'variants.base' });
+    expect(BATCH_DEFAULTS.chunkSize).toBe('auto');
   });
 
   it('rejects bad arguments with ArgumentError naming the option', async () => {

@@ -141,6 +141,21 @@ export function describeError(e: unknown): VariantError {
  *   `{ ok: false, error }` with the error's class name, path and message
  */
 export function solveVariant(model: unknown, options: VariantOptions = {}, cache?: SymbolicCache, onProgress?: (phase: string, fraction: number) => void): VariantOutcome {
+  return runVariant(model, options, cache, onProgress, false).outcome;
+}
+
+/**
+ * {@link solveVariant} with the mode shapes packed in one typed array instead of one JSON array
+ * per mode, so that a worker thread can transfer them rather than copy them. With
+ * `options.shapes`, `result.modes[j]` carries no `shape` and `shapes` holds all of them.
+ * @returns the outcome, and with `options.shapes` on success `shapes`: length n·m, column-major
+ *   (mode j at [j·n, (j+1)·n), in the order of `result.dofs`), n free DOFs, m modes
+ */
+export function solveVariantPacked(model: unknown, options: VariantOptions = {}, cache?: SymbolicCache, onProgress?: (phase: string, fraction: number) => void): { outcome: VariantOutcome; shapes?: Float64Array } {
+  return runVariant(model, options, cache, onProgress, true);
+}
+
+function runVariant(model: unknown, options: VariantOptions, cache: SymbolicCache | undefined, onProgress: ((phase: string, fraction: number) => void) | undefined, packed: boolean): { outcome: VariantOutcome; shapes?: Float64Array } {
   const t0 = performance.now();
   try {
     const { shapes, ...analysisOptions } = options;
@@ -155,10 +170,129 @@ export function solveVariant(model: unknown, options: VariantOptions = {}, cache
       reused = got.reused;
     }
     const analysis = modalAnalysis(asm, { ...analysisOptions, ...(symbolic ? { symbolic } : {}), ...(onProgress ? { onProgress } : {}) });
-    return { ok: true, result: modesJsonObject(analysis, { shapes: shapes === true }), symbolicReused: reused, ms: performance.now() - t0 };
+    if (packed && shapes === true) {
+      const n = analysis.assembled.dofs.length;
+      const result = modesJsonObject(analysis, { shapes: false });
+      result.dofs = analysis.assembled.dofs.map((d) => ({ node: d.node, dof: d.dof })); // as modesJsonObject's `shapes` adds it
+      // Own buffer (the solver's vectors may be a view into a larger workspace), transferable.
+      const packedShapes = analysis.eigen.vectors.slice(0, n * analysis.modes.length);
+      return { outcome: { ok: true, result, symbolicReused: reused, ms: performance.now() - t0 }, shapes: packedShapes };
+    }
+    return { outcome: { ok: true, result: modesJsonObject(analysis, { shapes: shapes === true }), symbolicReused: reused, ms: performance.now() - t0 } };
   } catch (e) {
-    return { ok: false, error: describeError(e), ms: performance.now() - t0 };
+    return { outcome: { ok: false, error: describeError(e), ms: performance.now() - t0 } };
   }
+}
+
+// --- JSON Merge Patch (RFC 7396) ------------------------------------------------------------------
+
+/** A plain JSON object: not null, not an array, prototype Object.prototype or null. */
+function isPlainObject(v: unknown): v is Record<string, unknown> {
+  if (typeof v !== 'object' || v === null || Array.isArray(v)) return false;
+  const proto = Object.getPrototypeOf(v) as unknown;
+  return proto === Object.prototype || proto === null;
+}
+
+/**
+ * Applies a JSON Merge Patch (IETF RFC 7396, section 2) to `target` and returns the patched
+ * document: object members of the patch merge recursively, a `null` member removes that member,
+ * anything else (numbers, strings, arrays) replaces the target's value wholesale.
+ *
+ * Neither argument is modified: objects on the patched paths are copied, and the result shares
+ * every unchanged member with `target` (so the same base can be patched again and again).
+ * @param target - the document to patch (a model object, usually)
+ * @param patch - the merge patch; a non-object patch replaces the whole target
+ * @returns the patched document
+ */
+export function applyMergePatch(target: unknown, patch: unknown): unknown {
+  if (!isPlainObject(patch)) return patch;
+  const out: Record<string, unknown> = isPlainObject(target) ? { ...target } : {};
+  for (const key of Object.keys(patch)) {
+    const value = patch[key];
+    if (value === null) delete out[key];
+    else if (value !== undefined) out[key] = applyMergePatch(out[key], value);
+  }
+  return out;
+}
+
+/** Marks "no difference" inside {@link createMergePatch}; NOT_PATCHABLE marks "cannot be expressed". */
+const SAME = Symbol('same');
+const NOT_PATCHABLE = Symbol('not patchable');
+
+/**
+ * The JSON Merge Patch (RFC 7396) that turns `base` into `variant`, for sending a variant as its
+ * difference from a base model the receiver already holds: `applyMergePatch(base, patch)` then
+ * has the same JSON as `variant`. Arrays that differ are sent whole (RFC 7396 replaces arrays).
+ * @param base - the base document (plain JSON data)
+ * @param variant - the variant document (plain JSON data)
+ * @returns the patch (`{}` when the two are equal), or `undefined` when no merge patch can express
+ *   the difference: `variant` is not a plain object (a JSON text, say), has a `null` member
+ *   (which a merge patch reads as "remove"), or holds values JSON does not have (a Date, a typed
+ *   array, a class instance); send the variant whole then
+ */
+export function createMergePatch(base: unknown, variant: unknown): unknown {
+  if (!isPlainObject(base) || !isPlainObject(variant)) return undefined;
+  const d = diffObject(base, variant);
+  if (d === NOT_PATCHABLE) return undefined;
+  return d === SAME ? {} : d;
+}
+
+function diffObject(a: Record<string, unknown>, b: Record<string, unknown>): Record<string, unknown> | typeof SAME | typeof NOT_PATCHABLE {
+  let patch: Record<string, unknown> | undefined;
+  for (const key of Object.keys(b)) {
+    const bv = b[key];
+    if (bv === undefined) continue; // JSON has no undefined: the member is absent
+    if (bv === null) return NOT_PATCHABLE;
+    const av = a[key];
+    let d: unknown;
+    if (isPlainObject(bv)) {
+      if (isPlainObject(av)) d = diffObject(av, bv);
+      // Merged into {} by the receiver: fine unless it holds null members (they would vanish).
+      else d = hasNullMember(bv) ? NOT_PATCHABLE : bv;
+    } else if (typeof bv === 'object' && !Array.isArray(bv)) {
+      return NOT_PATCHABLE; // Date, Map, typed array, class instance: not JSON
+    } else {
+      d = av !== undefined && jsonEqual(av, bv) ? SAME : bv;
+    }
+    if (d === NOT_PATCHABLE) return NOT_PATCHABLE;
+    if (d !== SAME) (patch ??= {})[key] = d;
+  }
+  for (const key of Object.keys(a)) {
+    if (a[key] !== undefined && b[key] === undefined) (patch ??= {})[key] = null;
+  }
+  return patch ?? SAME;
+}
+
+/** Whether an object (outside arrays, where RFC 7396 keeps nulls) has a null member at any depth. */
+function hasNullMember(o: Record<string, unknown>): boolean {
+  for (const key of Object.keys(o)) {
+    const v = o[key];
+    if (v === null) return true;
+    if (isPlainObject(v) && hasNullMember(v)) return true;
+  }
+  return false;
+}
+
+/** Equality of JSON values: primitives by Object.is, arrays element by element, plain objects member by member (undefined members count as absent). */
+function jsonEqual(a: unknown, b: unknown): boolean {
+  if (Object.is(a, b)) return true;
+  if (Array.isArray(a)) {
+    if (!Array.isArray(b) || a.length !== b.length) return false;
+    for (let i = 0; i < a.length; i++) if (!jsonEqual(a[i], b[i])) return false;
+    return true;
+  }
+  if (isPlainObject(a) && isPlainObject(b)) {
+    let na = 0;
+    for (const key of Object.keys(a)) {
+      if (a[key] === undefined) continue;
+      na++;
+      if (!jsonEqual(a[key], b[key])) return false;
+    }
+    let nb = 0;
+    for (const key of Object.keys(b)) if (b[key] !== undefined) nb++;
+    return na === nb;
+  }
+  return false;
 }
 
 /** Whether `solve` will analyse the pattern: the sparse methods always, the dense ones to verify. */
