@@ -31,4 +31,19 @@ export default defineConfig([
     splitting: false,
     shims: true,
   },
+  {
+    // Self-contained browser ES module: the library entry with ml-matrix (and its own
+    // dependencies) bundled in, no bare and no node: imports, so a page or a module Web Worker
+    // can `import` dist/browser/eigenframe.js straight from a static server.
+    entry: { eigenframe: 'src/index.ts' },
+    outDir: 'dist/browser',
+    format: ['esm'],
+    dts: false,
+    sourcemap: true,
+    clean: false,
+    target: 'es2022',
+    platform: 'browser',
+    splitting: false,
+    noExternal: [/.*/],
+  },
 ]);

@@ -1,7 +1,7 @@
 /**
  * docs/app in a real browser: Debian's headless chromium opens the page with `?auto=demo`, its
- * Web Worker solves the demo footbridge with the built ESM library (dist/index.js, with
- * ml-matrix through the page's shim), and the frequencies the page shows must equal those the
+ * Web Worker solves the demo footbridge with the self-contained browser build of the library
+ * (dist/browser/eigenframe.js: ml-matrix bundled in, no import map, no shim), and the frequencies the page shows must equal those the
  * Node library computes for the same model (reference: `modalAnalysis` in Node, same count),
  * with no console error, no uncaught exception and no failed request. Then a model picked
  * through the file input is solved too, and a bad one shows its typed error and path.
@@ -9,8 +9,8 @@
  * Chromium is driven over the Chrome DevTools Protocol on a pipe (`--remote-debugging-pipe`:
  * JSON messages separated by NUL bytes, the browser reading fd 3 and writing fd 4), which needs
  * no WebSocket client. The repository root is served read-only by a small node:http server on
- * 127.0.0.1 at a random port. Skipped (with a message) when /usr/bin/chromium or dist/index.js
- * is absent; CI installs chromium and builds first.
+ * 127.0.0.1 at a random port. Skipped (with a message) when /usr/bin/chromium or
+ * dist/browser/eigenframe.js is absent; CI installs chromium and builds first.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -26,10 +26,10 @@ import { parseModel } from '../src/model/read';
 const CHROMIUM = '/usr/bin/chromium';
 const ROOT = resolve(new URL('..', import.meta.url).pathname);
 const hasChromium = existsSync(CHROMIUM);
-const hasBuild = existsSync(join(ROOT, 'dist', 'index.js'));
+const hasBuild = existsSync(join(ROOT, 'dist', 'browser', 'eigenframe.js'));
 const skip = !hasChromium || !hasBuild;
 if (!hasChromium) console.warn(`browser.test: skipped, ${CHROMIUM} not found (install it: apt-get install -y chromium)`);
-else if (!hasBuild) console.warn('browser.test: skipped, dist/index.js not found (run npm run build first)');
+else if (!hasBuild) console.warn('browser.test: skipped, dist/browser/eigenframe.js not found (run npm run build first)');
 
 const TYPES: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
@@ -43,14 +43,16 @@ const TYPES: Record<string, string> = {
 };
 
 /** Read-only static server of the repository root: GET and HEAD of files under ROOT, else 404/405. */
-function serveRoot(): Promise<{ server: Server; origin: string; failures: string[] }> {
+function serveRoot(): Promise<{ server: Server; origin: string; failures: string[]; requests: string[] }> {
   const failures: string[] = [];
+  const requests: string[] = [];
   const server = createServer((req, res) => {
     if (req.method !== 'GET' && req.method !== 'HEAD') {
       res.writeHead(405, { allow: 'GET, HEAD' }).end();
       return;
     }
     const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
+    requests.push(path);
     const file = normalize(join(ROOT, path));
     if ((file !== ROOT && !file.startsWith(ROOT + sep)) || !existsSync(file) || !statSync(file).isFile()) {
       failures.push(`${res.statusCode = 404} ${path}`);
@@ -62,7 +64,7 @@ function serveRoot(): Promise<{ server: Server; origin: string; failures: string
   });
   return new Promise((ok) => server.listen(0, '127.0.0.1', () => {
     const a = server.address();
-    ok({ server, origin: `http://127.0.0.1:${typeof a === 'object' && a ? a.port : 0}`, failures });
+    ok({ server, origin: `http://127.0.0.1:${typeof a === 'object' && a ? a.port : 0}`, failures, requests });
   }));
 }
 
@@ -171,9 +173,12 @@ describe('docs/app in headless chromium', () => {
     expect(page.head.some((h) => /Eff\. mass uz/.test(h))).toBe(true);
     expect(page.svgLines).toBeGreaterThan(10);
     expect(page.caution).toMatch(/support, and never replace, design to the local codes by a licensed engineer/);
-    expect(page.version).toMatch(/^\d+\.\d+\.\d+/); // the main thread loaded the library through the import map
+    expect(page.version).toMatch(/^\d+\.\d+\.\d+/); // the main thread loaded the browser build too
     expect(problems).toEqual([]);
     expect(served!.failures).toEqual([]);
+    // The one self-contained module, nothing from node_modules (no shim, no import map).
+    expect(served!.requests).toContain('/dist/browser/eigenframe.js');
+    expect(served!.requests.filter((p) => p.startsWith('/node_modules/') || p === '/dist/index.js')).toEqual([]);
     expect(attached).toContain('worker'); // the solve ran in a Web Worker
 
     // The file picker: a model chosen by the user, then a bad one (its typed error is shown).

@@ -4,8 +4,8 @@
  *
  * `?auto=demo` solves the demo at once; when the page is done, <html data-state> is `done` (or
  * `error`), and the table carries the full-precision frequencies in `data-frequencies` (JSON).
- * The main thread imports the library itself only for the caution and the version, through the
- * page's import map (`ml-matrix` → ./ml-matrix.js).
+ * The main thread imports the library itself only for the caution and the version, from the
+ * same self-contained browser build the worker uses (dist/browser/eigenframe.js).
  */
 
 import { formatNumber } from './format.js';
@@ -253,11 +253,11 @@ setState('loading');
 startWorker();
 if (params.get('auto') === 'demo') loadDemo();
 
-// The caution and version straight from the library, loaded here through the import map.
-import('../../dist/index.js').then(
+// The caution and version straight from the library (its browser build).
+import('../../dist/browser/eigenframe.js').then(
   (lib) => {
     ui.caution.textContent = lib.ENGINEERING_CAUTION;
     document.documentElement.dataset.version = lib.VERSION;
   },
-  (e) => console.error(`eigenframe: cannot load dist/index.js on the page (${e.message}); run "npm run build"`),
+  (e) => console.error(`eigenframe: cannot load dist/browser/eigenframe.js on the page (${e.message}); run "npm run build"`),
 );

@@ -1,7 +1,8 @@
 /**
- * The solver thread of the page (a module Web Worker): it loads the built ESM library
- * (dist/index.js), runs `parseModel` and `modalAnalysis`, and posts plain JSON back, so the page
- * stays responsive during the solve.
+ * The solver thread of the page (a module Web Worker): it loads the self-contained browser build
+ * of the library (dist/browser/eigenframe.js, ml-matrix bundled in, no bare imports), runs
+ * `parseModel` and `modalAnalysis`, and posts plain JSON back, so the page stays responsive
+ * during the solve.
  *
  * Messages in:  { type: 'solve', text, source, count }
  * Messages out: { type: 'ready', version }
@@ -10,33 +11,16 @@
  *               { type: 'error', name, path, message }
  */
 
-const libraryUrl = new URL('../../dist/index.js', import.meta.url).href;
-const mlMatrixUrl = new URL('./ml-matrix.js', import.meta.url).href;
+const libraryUrl = new URL('../../dist/browser/eigenframe.js', import.meta.url).href;
 
-/**
- * Import maps do not apply inside workers (WICG/import-maps issue #2), so the bare specifier
- * `ml-matrix` of the built library is rewritten to the shim's URL and the module is imported
- * from a Blob URL. The library bundles everything else into one file, so nothing else needs it.
- */
-async function loadLibrary() {
-  const response = await fetch(libraryUrl);
-  if (!response.ok) throw new Error(`cannot load ${libraryUrl} (HTTP ${response.status}); run "npm run build" first`);
-  const text = (await response.text())
-    .replace(/(from\s*)(["'])ml-matrix\2/g, (_, from) => `${from}${JSON.stringify(mlMatrixUrl)}`)
-    .replace(/\/\/# sourceMappingURL=(\S+)\s*$/, (_, map) => `//# sourceMappingURL=${new URL(map, libraryUrl).href}`);
-  const blobUrl = URL.createObjectURL(new Blob([text], { type: 'text/javascript' }));
-  try {
-    return await import(blobUrl);
-  } finally {
-    URL.revokeObjectURL(blobUrl);
-  }
-}
-
-const library = loadLibrary();
+/** A dynamic import, so that a missing build is reported on the page rather than as a bare failure. */
+const library = import(libraryUrl).catch((e) => {
+  throw new Error(`cannot load ${libraryUrl} (${e?.message ?? e}); run "npm run build" first`);
+});
 
 library.then(
   (lib) => postMessage({ type: 'ready', version: lib.VERSION }),
-  (e) => postMessage({ type: 'error', name: e?.name ?? 'Error', path: 'dist/index.js', message: String(e?.message ?? e) }),
+  (e) => postMessage({ type: 'error', name: e?.name ?? 'Error', path: 'dist/browser/eigenframe.js', message: String(e?.message ?? e) }),
 );
 
 self.onmessage = async (event) => {
