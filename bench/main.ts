@@ -42,7 +42,7 @@ interface Flags {
   timeoutMinutes: number;
 }
 
-const USAGE = `usage: npm run bench -- [--quick] [--case NAME]... [--timeout-min N]
+const USAGE = `usage: npm run bench -- [--quick] [--case NAME]... [--timeout-min N] | --batch
 cases: ${CASES.map((c) => c.name).join(', ')} (or a family: building, footbridge, dense)`;
 
 function parseFlags(argv: readonly string[]): Flags {
@@ -345,7 +345,15 @@ async function parentMain(argv: readonly string[]): Promise<void> {
 
 const argv = process.argv.slice(2);
 if (argv[0] === '--child') childMain(argv.slice(1));
-else {
+else if (argv[0] === '--batch') {
+  // The parameter study alone.
+  runBatchBench()
+    .then((r) => process.stdout.write(`${formatBatchBench(r)}\n`))
+    .catch((e: unknown) => {
+      process.stderr.write(`bench: ${e instanceof Error ? e.message : String(e)}\n`);
+      process.exitCode = 1;
+    });
+} else {
   parentMain(argv).catch((e: unknown) => {
     process.stderr.write(`bench: ${e instanceof Error ? e.message : String(e)}\n`);
     process.exitCode = 1;
