@@ -12,7 +12,7 @@
  *
  * Units: E in Pa, A in m², density ρ in kg/m³, coordinates in m; stiffness in N/m, mass in kg.
  */
-import { memberLength, positive } from './transform';
+import { memberLength, positive, nonNegative } from './transform';
 
 /** Local axial stiffness EA/L · [1 −1; −1 1], 2 × 2 row-major, N/m. */
 export function barStiffnessLocal(E: number, A: number, L: number, out?: Float64Array): Float64Array {
@@ -24,7 +24,7 @@ export function barStiffnessLocal(E: number, A: number, L: number, out?: Float64
 
 /** Local axial consistent mass ρAL/6 · [2 1; 1 2], 2 × 2 row-major, kg. */
 export function barConsistentMassLocal(density: number, A: number, L: number, out?: Float64Array): Float64Array {
-  const m = (positive(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 6;
+  const m = (nonNegative(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 6;
   const o = out ?? new Float64Array(4);
   o[0] = 2 * m; o[1] = m; o[2] = m; o[3] = 2 * m;
   return o;
@@ -32,7 +32,7 @@ export function barConsistentMassLocal(density: number, A: number, L: number, ou
 
 /** Local axial lumped mass ρAL/2 · I₂, 2 × 2 row-major, kg. */
 export function barLumpedMassLocal(density: number, A: number, L: number, out?: Float64Array): Float64Array {
-  const m = (positive(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
+  const m = (nonNegative(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
   const o = out ?? new Float64Array(4);
   o[0] = m; o[1] = 0; o[2] = 0; o[3] = m;
   return o;
@@ -60,7 +60,7 @@ function barMassGlobal(density: number, A: number, L: number, d: number, diag: n
   const n = 2 * d;
   const o = out ?? new Float64Array(n * n);
   o.fill(0, 0, n * n);
-  const m = positive(density, 'density') * positive(A, 'A') * L;
+  const m = nonNegative(density, 'density') * positive(A, 'A') * L;
   for (let i = 0; i < d; i++) {
     o[i * n + i] = m * diag;
     o[(i + d) * n + i + d] = m * diag;

@@ -7,7 +7,7 @@
  * Units: E in Pa, I in m⁴, A in m², density ρ in kg/m³, L in m. Stiffness in N/m, N, N·m/rad;
  * mass in kg, kg·m, kg·m².
  */
-import { positive } from './transform';
+import { positive, nonNegative } from './transform';
 
 /** Bending stiffness EI/L³ · [12 6L −12 6L; 6L 4L² −6L 2L²; …], 4 × 4 row-major. */
 export function beamStiffness(E: number, I: number, L: number, out?: Float64Array): Float64Array {
@@ -19,7 +19,7 @@ export function beamStiffness(E: number, I: number, L: number, out?: Float64Arra
  * −13L −3L² −22L 4L²], translational inertia only (no rotary inertia), 4 × 4 row-major, kg.
  */
 export function beamConsistentMass(density: number, A: number, L: number, out?: Float64Array): Float64Array {
-  const m = (positive(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 420;
+  const m = (nonNegative(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 420;
   const o = out ?? new Float64Array(16);
   const a = 22 * L * m;
   const b = 13 * L * m;
@@ -38,7 +38,7 @@ export function beamConsistentMass(density: number, A: number, L: number, out?: 
  * singular; their eigenvalues are infinite and the solvers do not return them.
  */
 export function beamLumpedMass(density: number, A: number, L: number, out?: Float64Array): Float64Array {
-  const m = (positive(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
+  const m = (nonNegative(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
   const o = out ?? new Float64Array(16);
   o.fill(0, 0, 16);
   o[0] = m;

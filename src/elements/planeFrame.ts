@@ -15,7 +15,7 @@ import { ArgumentError } from '../errors';
 import { barConsistentMassLocal } from './bar';
 import { beamConsistentMass, fillBeamStiffness } from './beam';
 import { fillTimoshenkoMass, timoshenkoShearParameter } from './timoshenko';
-import { memberLength, positive, transformSymmetric3 } from './transform';
+import { memberLength, positive, transformSymmetric3, nonNegative } from './transform';
 import type { PlaneFrameProps } from './types';
 
 const AXIAL = [0, 3];
@@ -61,7 +61,7 @@ export function planeFrameConsistentMassLocal(p: PlaneFrameProps, L: number, out
 export function planeFrameLumpedMass(p: PlaneFrameProps, L: number, out?: Float64Array): Float64Array {
   const o = out ?? new Float64Array(36);
   o.fill(0, 0, 36);
-  const m = (positive(p.density, 'density') * positive(p.A, 'A') * positive(L, 'L')) / 2;
+  const m = (nonNegative(p.density, 'density') * positive(p.A, 'A') * positive(L, 'L')) / 2;
   const r = p.theory === 'timoshenko' ? (p.density * positive(p.I, 'I') * L) / 2 : 0;
   o[0] = m; o[7] = m; o[14] = r; o[21] = m; o[28] = m; o[35] = r;
   return o;

@@ -30,7 +30,7 @@ import { ArgumentError } from '../errors';
 import { barConsistentMassLocal, barStiffnessLocal } from './bar';
 import { beamConsistentMass, fillBeamStiffness } from './beam';
 import { fillTimoshenkoMass, timoshenkoShearParameter } from './timoshenko';
-import { memberLength, positive, transformSymmetric3 } from './transform';
+import { memberLength, positive, transformSymmetric3, nonNegative } from './transform';
 import type { SpaceFrameProps } from './types';
 
 /** A member whose horizontal projection is at most this fraction of its length is vertical. */
@@ -154,7 +154,7 @@ export function spaceFrameConsistentMassLocal(p: SpaceFrameProps, L: number, out
 export function spaceFrameLumpedMassLocal(p: SpaceFrameProps, L: number, out?: Float64Array): Float64Array {
   const o = out ?? new Float64Array(144);
   o.fill(0, 0, 144);
-  const m = (positive(p.density, 'density') * positive(p.A, 'A') * positive(L, 'L')) / 2;
+  const m = (nonNegative(p.density, 'density') * positive(p.A, 'A') * positive(L, 'L')) / 2;
   const tor = (p.density * polar(p) * L) / 2;
   const ry = p.theory === 'timoshenko' ? (p.density * p.Iy * L) / 2 : 0;
   const rz = p.theory === 'timoshenko' ? (p.density * p.Iz * L) / 2 : 0;

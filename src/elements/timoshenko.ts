@@ -12,7 +12,7 @@
  * Units: E, G in Pa; I in m⁴; A in m²; density ρ in kg/m³; L in m; κ dimensionless.
  */
 import { fillBeamStiffness } from './beam';
-import { positive } from './transform';
+import { positive, nonNegative } from './transform';
 
 /** Shear parameter Φ = 12EI / (κGAL²), dimensionless, ≥ 0. */
 export function timoshenkoShearParameter(E: number, I: number, G: number, A: number, kappa: number, L: number): number {
@@ -36,7 +36,7 @@ export function timoshenkoStiffness(E: number, I: number, L: number, phi: number
  * @param phi - shear parameter Φ, ≥ 0
  */
 export function timoshenkoConsistentMass(density: number, A: number, I: number, L: number, phi: number, out?: Float64Array): Float64Array {
-  positive(density, 'density');
+  nonNegative(density, 'density');
   positive(A, 'A');
   positive(L, 'L');
   if (!(I >= 0) || !Number.isFinite(I)) positive(I, 'I');
@@ -50,7 +50,7 @@ export function timoshenkoConsistentMass(density: number, A: number, I: number, 
  * zero there), diagonal 4 × 4 row-major.
  */
 export function timoshenkoLumpedMass(density: number, A: number, I: number, L: number, out?: Float64Array): Float64Array {
-  const m = (positive(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
+  const m = (nonNegative(density, 'density') * positive(A, 'A') * positive(L, 'L')) / 2;
   if (!(I >= 0) || !Number.isFinite(I)) positive(I, 'I');
   const o = out ?? new Float64Array(16);
   o.fill(0, 0, 16);

@@ -59,6 +59,12 @@ export function memberLength(dx: number, dy: number, dz: number): number {
   return L;
 }
 
+/** Throws ArgumentError unless v is a finite number ≥ 0; returns v (a massless member has density 0). */
+export function nonNegative(v: number, name: string): number {
+  if (!(v >= 0) || !Number.isFinite(v)) throw new ArgumentError(`${name} is ${v}; it must be a finite number ≥ 0`, name);
+  return v;
+}
+
 /** Throws ArgumentError unless v is a finite number > 0; returns v. */
 export function positive(v: number, name: string): number {
   if (!(v > 0) || !Number.isFinite(v)) throw new ArgumentError(`${name} is ${v}; it must be a finite number > 0`, name);

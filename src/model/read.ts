@@ -80,9 +80,8 @@ function str(v: unknown, path: string, what: string): string {
  * Physical ranges of the numbers of a model: generous enough that no real structure trips them,
  * tight enough to catch a wrong unit (a value in mm, g or MPa where m, kg or Pa belong) or
  * garbage. The reasoning behind each bound is in docs/model-format.md ("Physical ranges").
- * Lower bounds: E, G, density, A, Iz, Iy, J, Ip, kappa and spring stiffness > 0 (the element
- * matrices need density > 0: a rigid link gets a small density); point mass and rotary
- * inertia ≥ 0.
+ * Lower bounds: E, G, A, Iz, Iy, J, Ip, kappa and spring stiffness > 0; density, point mass
+ * and rotary inertia ≥ 0 (a massless member, e.g. a rigid link, has density 0).
  */
 export const MODEL_LIMITS = {
   /** Largest E and G, Pa: admits rigid links of E × 1e8 of steel (2.1e19 Pa). */
@@ -332,7 +331,7 @@ export function validateModel(raw: unknown): Model {
     checkKeys(o, MATERIAL_KEYS, p, `material "${name}"`);
     const m: MaterialSpec = {
       E: num(o.E, `${p}.E`, `E of material "${name}"`, 'Pa', 'positive', BOUNDS.E),
-      density: num(o.density, `${p}.density`, `density of material "${name}"`, 'kg/m³', 'positive', BOUNDS.density),
+      density: num(o.density, `${p}.density`, `density of material "${name}"`, 'kg/m³', 'nonNegative', BOUNDS.density),
     };
     const G = optNum(o, 'G', p, `G of material "${name}"`, 'Pa', BOUNDS.G);
     if (G !== undefined) m.G = G;
