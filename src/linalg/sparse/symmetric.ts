@@ -177,8 +177,32 @@ export function toDenseArray(a: SymmetricCsc): Float64Array {
   return d;
 }
 
-/** Builds a SymmetricCsc from a dense symmetric row-major array, keeping |v| > dropTol. */
+/** Relative asymmetry |a_ij − a_ji| / max|a| that {@link fromDenseArray} tolerates (round-off). */
+export const DENSE_SYMMETRY_TOLERANCE = 1e-12;
+
+/**
+ * Builds a SymmetricCsc from a dense symmetric row-major array, keeping |v| > dropTol.
+ * @throws ArgumentError (path `(i, j)`) when the array is not n × n, holds a non-finite value, or
+ *   is not symmetric to DENSE_SYMMETRY_TOLERANCE relative to its largest entry (only the lower
+ *   triangle is stored, so an asymmetric input would otherwise lose its upper half silently)
+ */
 export function fromDenseArray(n: number, dense: ArrayLike<number>, dropTol = 0): SymmetricCsc {
+  if (dense.length !== n * n) throw new ArgumentError(`the array holds ${dense.length} values, not n × n = ${n * n}; give a full square matrix, row by row`, 'dense');
+  let big = 0;
+  for (let k = 0; k < n * n; k++) {
+    const v = dense[k];
+    if (!Number.isFinite(v)) throw new ArgumentError(`entry is ${v}; a matrix holds finite numbers`, `(${Math.floor(k / n)}, ${k % n})`);
+    if (Math.abs(v) > big) big = Math.abs(v);
+  }
+  for (let j = 0; j < n; j++) {
+    for (let i = j + 1; i < n; i++) {
+      const a = dense[i * n + j];
+      const b = dense[j * n + i];
+      if (Math.abs(a - b) > DENSE_SYMMETRY_TOLERANCE * big) {
+        throw new ArgumentError(`entry (${i}, ${j}) = ${a} but (${j}, ${i}) = ${b}: the matrix is not symmetric; give a symmetric matrix (K and M of a structure are)`, `(${i}, ${j})`);
+      }
+    }
+  }
   const b = new CooBuilder(n, n * 4);
   for (let j = 0; j < n; j++) {
     for (let i = j; i < n; i++) {
