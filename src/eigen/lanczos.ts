@@ -18,6 +18,11 @@
  *   projected matrix becomes an arrowhead plus a tridiagonal (Wu & Simon 2000, "Thick-restart
  *   Lanczos method for large symmetric eigenvalue problems", SIAM J. Matrix Anal. Appl. 22(2),
  *   §2–3).
+ * - Converged Ritz pairs are locked at a restart (kept, purified, no longer recombined; their
+ *   couplings, below the tolerance, are dropped), so a restart recombines only the active
+ *   columns (Lehoucq & Sorensen 1996, SIAM J. Matrix Anal. Appl. 17(4), §3). Convergence is
+ *   also tested inside a cycle when a test is cheap next to a step, so a run ends at the step
+ *   where the wanted pairs converge.
  * - Locked vectors (already known eigenvectors) are kept in front of the basis and every new
  *   Lanczos vector is M-orthogonalized against them, which is how a missed copy of a repeated
  *   eigenvalue is found by a second run (Grimes, Lewis & Simon 1994, §3.3).
@@ -209,17 +214,58 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
 
   let exhausted = !newStartVector(L, mvCur);
   let m = exhausted ? 0 : ncv; // Lanczos columns in use at the last restart
-  let k = 0; // kept Ritz vectors
+  let k = 0; // locked + kept Ritz vectors: the Lanczos steps continue from column L + k
+  // Locked Ritz pairs (Lanczos columns [0, nl)): converged at a restart, purified, and from then
+  // on only orthogonalized against; their couplings (≤ tolerance · |θ|) are dropped from T,
+  // so each restart recombines only the active columns (deflation by locking: Lehoucq &
+  // Sorensen 1996, SIAM J. Matrix Anal. Appl. 17(4), §3; Stathopoulos & Saad's "locking").
+  let nl = 0;
+  const lockedTheta = new Float64Array(ncv);
+  const lockedEst = new Float64Array(ncv);
   let betaLast = 0;
-  let theta = new Float64Array(0);
-  let S = new Float64Array(0); // Ritz vectors of T, column-major m × m
-  let order: number[] = [];
-  let nconv = 0;
+  let ma = 0; // active columns [nl, m) in the last projection
+  let theta = new Float64Array(ncv);
+  let S = new Float64Array(ncv * ncv); // Ritz vectors of the active T, column-major ma × ma
+  const order = new Int32Array(ncv);
+  const stage = new Float64Array(ncv * ncv); // S's kept columns, staged during a restart
+  let nconv = 0; // converged among the wanted active pairs (a prefix of `order`)
   let done = exhausted;
+
+  // Convergence is tested at the end of each cycle and, when it is cheap enough, every
+  // `testEvery` steps within it, so that a run stops at the step where the wanted pairs have
+  // converged rather than at the next full basis. A test (dense eigen-decomposition of the
+  // active projected matrix, ≈ 10·m³ flops) then costs at most about a tenth of the steps' own
+  // Gram–Schmidt work (≥ 2·n·m flops per step with m basis vectors): q = ⌈50·m² / n⌉.
+  const testEvery = Math.max(1, Math.ceil((50 * ncv * ncv) / n));
+  let tested = -1; // m of the last Ritz computation, when T has not changed since
+
+  /** Ritz pairs of the active part T[nl .. mCur): θ, S, order by |θ|, converged wanted prefix. */
+  const ritz = (mCur: number, beta: number): void => {
+    ma = mCur - nl;
+    const evd = ritzOfActive(T, ncv, nl, ma);
+    const lam = evd.realEigenvalues;
+    const Z = evd.eigenvectorMatrix;
+    for (let c = 0; c < ma; c++) {
+      theta[c] = lam[c];
+      for (let i = 0; i < ma; i++) S[c * ma + i] = Z.get(i, c);
+    }
+    // Wanted first: largest |θ| (λ nearest σ); ties broken by index for determinism.
+    for (let i = 0; i < ma; i++) order[i] = i;
+    sortByMagnitude(order, theta, ma);
+    const nevA = nev - nl;
+    nconv = 0;
+    for (let r = 0; r < Math.min(nevA, ma); r++) {
+      const i = order[r];
+      if (Math.abs(beta * S[i * ma + ma - 1]) <= tol * Math.abs(theta[i]) && theta[i] !== 0) nconv++;
+      else break;
+    }
+    tested = mCur;
+  };
 
   while (!done) {
     // ---- Lanczos steps from column k to ncv − 1 ----
     m = ncv;
+    tested = -1;
     for (let j = k; j < ncv; j++) {
       checkAbort();
       inverse.apply(mvCur, w); // w = OP v_j = (K − σM)⁻¹ M v_j
@@ -288,89 +334,117 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       } else betaLast = beta;
       mvNext = mvCur;
       mvCur = z;
+      if (j + 1 < ncv && j + 1 - nl > nev - nl && (ncv - j - 1) % testEvery === 0) {
+        ritz(j + 1, beta);
+        if (nl + nconv >= nev) {
+          m = j + 1;
+          betaLast = beta;
+          break;
+        }
+      }
     }
     if (exhausted) betaLast = 0;
 
-    // ---- Ritz values of the projected matrix ----
-    const rows: number[][] = [];
-    for (let i = 0; i < m; i++) {
-      const row = new Array<number>(m);
-      for (let j = 0; j < m; j++) row[j] = T[j * ncv + i];
-      rows.push(row);
-    }
-    const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
-    theta = Float64Array.from(evd.realEigenvalues);
-    const Z = evd.eigenvectorMatrix;
-    S = new Float64Array(m * m);
-    for (let c = 0; c < m; c++) for (let i = 0; i < m; i++) S[c * m + i] = Z.get(i, c);
-    // Wanted first: largest |θ| (λ nearest σ); ties broken by index for determinism.
-    order = Array.from({ length: m }, (_, i) => i).sort((a, b) => Math.abs(theta[b]) - Math.abs(theta[a]) || a - b);
-    nconv = 0;
-    for (let r = 0; r < Math.min(nev, m); r++) {
-      const i = order[r];
-      if (Math.abs(betaLast * S[i * m + m - 1]) <= tol * Math.abs(theta[i]) && theta[i] !== 0) nconv++;
-      else break;
-    }
-    o.onProgress?.('lanczos', Math.min(1, nconv / nev));
-    if (nconv >= nev || exhausted || restarts >= o.maxRestarts) break;
+    // ---- Ritz values of the active part of the projected matrix ----
+    if (tested !== m || exhausted) ritz(m, betaLast);
+    const nevA = nev - nl;
+    o.onProgress?.('lanczos', Math.min(1, (nl + nconv) / nev));
+    if (nl + nconv >= nev || exhausted || restarts >= o.maxRestarts) break;
 
-    // ---- thick restart (Wu & Simon 2000, §3): keep k Ritz vectors, then the residual vector ----
-    k = Math.min(m - 1, nev + Math.max(1, Math.floor((m - nev) / 2)));
-    const sel = new Float64Array(m * k);
-    for (let c = 0; c < k; c++) sel.set(S.subarray(order[c] * m, order[c] * m + m), c * m);
-    combineColumnsInPlace(V, n, L, m, sel, m, k, tmp);
+    // ---- thick restart (Wu & Simon 2000, §3): keep kA active Ritz vectors, lock the converged
+    // ones among them, then continue from the residual vector ----
+    const kA = Math.min(ma - 1, nevA + Math.max(1, Math.floor((ma - nevA) / 2)));
+    const sel = S.subarray(0, ma * kA);
+    gatherColumns(S, ma, order, kA, sel, stage);
+    // gatherColumns left S's columns in `order` in sel; the couplings and θ follow that order.
+    const coupling = new Float64Array(kA);
+    const thetaSel = new Float64Array(kA);
+    for (let c = 0; c < kA; c++) {
+      thetaSel[c] = theta[order[c]];
+      coupling[c] = betaLast * sel[c * ma + ma - 1];
+    }
+    combineColumnsInPlace(V, n, L + nl, ma, sel, ma, kA, tmp);
+    const vm = vCol[L + m];
+    const lockNow = Math.min(nconv, kA);
+    for (let c = 0; c < lockNow; c++) {
+      // Purify on locking, while the residual vector is at hand (Nour-Omid et al. 1987, §4).
+      const g = coupling[c] / thetaSel[c];
+      const x = vCol[L + nl + c];
+      if (g !== 0) for (let r = 0; r < n; r++) x[r] += g * vm[r];
+      lockedTheta[nl + c] = thetaSel[c];
+      lockedEst[nl + c] = Math.abs(coupling[c]) / Math.abs(thetaSel[c]);
+    }
+    k = nl + kA;
     V.copyWithin((L + k) * n, (L + m) * n, (L + m + 1) * n);
     // The residual vector moves to column k; its M-image stays in mvCur. The kept Ritz vectors
     // need no M-image: OP is applied only to the newest Lanczos vector.
     T.fill(0);
-    for (let c = 0; c < k; c++) {
-      const i = order[c];
-      T[c * ncv + c] = theta[i];
-      const coupling = betaLast * S[i * m + m - 1];
-      T[k * ncv + c] = coupling;
-      T[c * ncv + k] = coupling;
+    for (let c = lockNow; c < kA; c++) {
+      const q = nl + c;
+      T[q * ncv + q] = thetaSel[c];
+      T[k * ncv + q] = coupling[c];
+      T[q * ncv + k] = coupling[c];
     }
+    nl += lockNow;
     restarts++;
   }
 
-  // ---- Ritz vectors of the converged pairs, purified, ascending in λ ----
-  const accepted: number[] = [];
-  for (let r = 0; r < m; r++) {
+  // ---- Ritz vectors of the converged pairs: the locked ones, then the converged active ones,
+  // purified, then put in ascending λ ----
+  const acceptedA: number[] = [];
+  for (let r = 0; r < ma; r++) {
     const i = order[r];
     if (theta[i] === 0) continue;
-    const est = Math.abs(betaLast * S[i * m + m - 1]) / Math.abs(theta[i]);
-    if (est <= tol || exhausted) accepted.push(i);
-    else if (r >= nev) break; // beyond the wanted ones, stop at the first unconverged
+    const est = Math.abs(betaLast * S[i * ma + ma - 1]) / Math.abs(theta[i]);
+    if (est <= tol || exhausted) acceptedA.push(i);
+    else if (r >= nev - nl) break; // beyond the wanted ones, stop at the first unconverged
   }
-  accepted.sort((a, b) => sigma + 1 / theta[a] - (sigma + 1 / theta[b]) || a - b);
-  const p = accepted.length;
-  const eigenvalues = new Float64Array(p);
-  const errorEstimates = new Float64Array(p);
-  const sel = new Float64Array(m * p);
-  for (let c = 0; c < p; c++) {
-    const i = accepted[c];
-    sel.set(S.subarray(i * m, i * m + m), c * m);
-    eigenvalues[c] = sigma + 1 / theta[i];
-    errorEstimates[c] = Math.abs(betaLast * S[i * m + m - 1]) / Math.abs(theta[i]);
+  const pA = acceptedA.length;
+  const p = nl + pA;
+  const thetaAll = new Float64Array(p);
+  const estAll = new Float64Array(p);
+  for (let c = 0; c < nl; c++) {
+    thetaAll[c] = lockedTheta[c];
+    estAll[c] = lockedEst[c];
   }
-  if (p > 0) {
-    combineColumnsInPlace(V, n, L, m, sel, m, p, tmp);
+  const sel = new Float64Array(ma * pA);
+  for (let c = 0; c < pA; c++) {
+    const i = acceptedA[c];
+    sel.set(S.subarray(i * ma, i * ma + ma), c * ma);
+    thetaAll[nl + c] = theta[i];
+    estAll[nl + c] = Math.abs(betaLast * S[i * ma + ma - 1]) / Math.abs(theta[i]);
   }
+  if (pA > 0) combineColumnsInPlace(V, n, L + nl, ma, sel, ma, pA, tmp);
   // The results are views into the basis buffer (no copy: on large models the fresh pages of
   // a copy cost as much as a restart). Mass vectors take the columns after the vectors when
   // they fit, else a buffer of their own.
   const vectors = V.subarray(L * n, (L + p) * n);
   const massVectors = L + 2 * p <= cols ? V.subarray((L + p) * n, (L + 2 * p) * n) : new Float64Array(p * n);
   const vm = vCol[L + m];
-  // Purify every vector first: the residual vector vm may lie where the mass vectors go.
+  // Purify every active vector first: the residual vector vm may lie where the mass vectors go.
   if (!exhausted) {
-    for (let c = 0; c < p; c++) {
-      const i = accepted[c];
-      const g = (betaLast * S[i * m + m - 1]) / theta[i];
+    for (let c = 0; c < pA; c++) {
+      const i = acceptedA[c];
+      const g = (betaLast * S[i * ma + ma - 1]) / theta[i];
       if (g === 0) continue;
-      const x = vectors.subarray(c * n, (c + 1) * n);
+      const x = vectors.subarray((nl + c) * n, (nl + c + 1) * n);
       for (let r = 0; r < n; r++) x[r] += g * vm[r];
     }
+  }
+  // Ascending λ = σ + 1/θ (ties by position, for determinism); columns are permuted through
+  // the mass-vector area, which is then overwritten.
+  const perm = Array.from({ length: p }, (_, c) => c).sort((a, b) => sigma + 1 / thetaAll[a] - (sigma + 1 / thetaAll[b]) || a - b);
+  let sorted = true;
+  for (let c = 0; c < p; c++) if (perm[c] !== c) sorted = false;
+  if (!sorted) {
+    for (let c = 0; c < p; c++) massVectors.set(vectors.subarray(perm[c] * n, (perm[c] + 1) * n), c * n);
+    vectors.set(massVectors.subarray(0, p * n));
+  }
+  const eigenvalues = new Float64Array(p);
+  const errorEstimates = new Float64Array(p);
+  for (let c = 0; c < p; c++) {
+    eigenvalues[c] = sigma + 1 / thetaAll[perm[c]];
+    errorEstimates[c] = estAll[perm[c]];
   }
   for (let c = 0; c < p; c++) {
     const x = vectors.subarray(c * n, (c + 1) * n);
@@ -387,10 +461,45 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     vectors,
     massVectors,
     errorEstimates,
-    converged: nconv >= nev || (exhausted && p >= nev),
+    converged: nl + nconv >= nev || (exhausted && p >= nev),
     exhausted,
     steps,
     restarts,
     secondPasses,
   };
+}
+
+/**
+ * Eigen-decomposition of the active block T[nl .. nl+ma) of the projected matrix (column-major,
+ * leading dimension ld), through ml-matrix's symmetric tridiagonal QL.
+ */
+function ritzOfActive(T: Float64Array, ld: number, nl: number, ma: number): EigenvalueDecomposition {
+  const a = new Matrix(ma, ma);
+  for (let i = 0; i < ma; i++) for (let j = 0; j < ma; j++) a.set(i, j, T[(nl + j) * ld + nl + i]);
+  return new EigenvalueDecomposition(a, { assumeSymmetric: true });
+}
+
+/** Sorts order[0 .. m) by |θ| descending, ties by index (insertion sort: m is a few dozen). */
+function sortByMagnitude(order: Int32Array, theta: Float64Array, m: number): void {
+  for (let r = 1; r < m; r++) {
+    const i = order[r];
+    const ai = Math.abs(theta[i]);
+    let q = r - 1;
+    while (q >= 0) {
+      const aq = Math.abs(theta[order[q]]);
+      if (aq > ai || (aq === ai && order[q] < i)) break;
+      order[q + 1] = order[q];
+      q--;
+    }
+    order[q + 1] = i;
+  }
+}
+
+/**
+ * out[:, c] ← s[:, order[c]] for c < k (s column-major m × m); `out` may be s's own storage
+ * (the columns are staged through `work`, length ≥ m·k).
+ */
+function gatherColumns(s: Float64Array, m: number, order: Int32Array, k: number, out: Float64Array, work: Float64Array): void {
+  for (let c = 0; c < k; c++) work.set(s.subarray(order[c] * m, order[c] * m + m), c * m);
+  out.set(work.subarray(0, m * k));
 }

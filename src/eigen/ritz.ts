@@ -6,6 +6,7 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { VerificationError } from '../errors';
+import type { Operator } from '../linalg/operator';
 import { combineColumnsInPlace, dotColumns, gram, subtractColumns } from './kernels';
 
 /** Solution of a small dense generalized symmetric problem A q = λ B q, B positive definite. */
@@ -119,6 +120,30 @@ export function rayleighRitz(x: Float64Array, kx: Float64Array, mx: Float64Array
   const a = new Float64Array(q * q);
   const b = new Float64Array(q * q);
   gram(x, kx, n, q, q, a);
+  gram(x, mx, n, q, q, b);
+  const { values, vectors } = projectedEigen(a, b, q);
+  combineColumnsInPlace(x, n, 0, q, vectors, q, q, tmp);
+  combineColumnsInPlace(mx, n, 0, q, vectors, q, q, tmp);
+  return values;
+}
+
+/**
+ * {@link rayleighRitz} with K given as an operator: Xᵀ K X is formed one column at a time
+ * (one n-vector of work instead of an n × q block K·X), with the same sums as `gram`, so the
+ * result is the same to the bit.
+ * @param x - basis, column-major n × q (overwritten with the Ritz vectors)
+ * @param k - y ← K·x
+ * @param mx - M·X, column-major n × q (overwritten with M times the Ritz vectors)
+ * @param tmp - work buffer, length ≥ q (larger is faster: rows are rotated in blocks)
+ */
+export function rayleighRitzOperator(x: Float64Array, k: Operator, mx: Float64Array, n: number, q: number, tmp: Float64Array): Float64Array {
+  const a = new Float64Array(q * q);
+  const b = new Float64Array(q * q);
+  const kx = new Float64Array(n);
+  for (let j = 0; j < q; j++) {
+    k.apply(x.subarray(j * n, (j + 1) * n), kx);
+    dotColumns(x, n, 0, q, kx, a.subarray(j * q, (j + 1) * q));
+  }
   gram(x, mx, n, q, q, b);
   const { values, vectors } = projectedEigen(a, b, q);
   combineColumnsInPlace(x, n, 0, q, vectors, q, q, tmp);

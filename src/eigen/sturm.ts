@@ -100,12 +100,15 @@ export function sturmCheck(pencil: ShiftedPencil, computed: Float64Array, return
   const upper = pencil.factorAt(hi + gap, 1, undefined, checkOptions);
   const shift = upper.shift;
   const countBelow = upper.factor.negativePivots;
+  // Only the counts are kept: the next factorization of the pencil reuses the storage.
+  pencil.recycle(upper.factor);
   let lowerShift: number | undefined;
   let countBelowLower: number | undefined;
   if (options.window) {
     const lower = pencil.factorAt(lo - gap, -1, undefined, checkOptions);
     lowerShift = lower.shift;
     countBelowLower = lower.factor.negativePivots;
+    pencil.recycle(lower.factor);
   }
   const from = lowerShift ?? -Infinity;
   let inside = 0;

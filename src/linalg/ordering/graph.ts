@@ -128,6 +128,17 @@ export function compress(g: Graph): CompressedGraph {
       }
     }
   }
+  if (nc === n) {
+    // Nothing merged (bar and plane-frame patterns that store no zero couplings): the graph is
+    // its own quotient; skip the copy.
+    const start = new Int32Array(n + 1);
+    const members = new Int32Array(n);
+    for (let v = 0; v < n; v++) {
+      start[v + 1] = v + 1;
+      members[v] = v;
+    }
+    return { graph: g, weight: new Int32Array(n).fill(1), start, members };
+  }
   return quotient(g, cid, nc);
 }
 

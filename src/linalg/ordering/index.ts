@@ -26,11 +26,23 @@ export type OrderingMethod = 'amd' | 'nd' | 'rcm' | 'natural';
  * @throws ArgumentError (path `method`) for an unknown name; (path `pattern.*`) for an invalid pattern
  */
 export function order(pattern: SymmetricCsc, method: OrderingMethod): Int32Array {
+  return orderWith(pattern, method);
+}
+
+/**
+ * `order`, with the node grouping of `amd` and `nd` given (from {@link nodeBlocks} of the same
+ * pattern) so that a caller trying both computes it once. Internal to the linalg layer.
+ */
+export function orderWith(pattern: SymmetricCsc, method: OrderingMethod, blocks?: NodeBlocks): Int32Array {
   switch (method) {
-    case 'amd':
-      return amd(pattern);
-    case 'nd':
-      return nestedDissection(pattern);
+    case 'amd': {
+      const b = blocks ?? nodeBlocks(pattern);
+      return expand(b.blocks, b.amdOrder);
+    }
+    case 'nd': {
+      const b = blocks ?? nodeBlocks(pattern);
+      return expand(b.blocks, ndGraph(b.blocks.graph, b.blocks.weight, resolveNdOptions(undefined)));
+    }
     case 'rcm':
       return rcm(pattern);
     case 'natural': {
@@ -53,8 +65,22 @@ export function order(pattern: SymmetricCsc, method: OrderingMethod): Int32Array
  * @throws ArgumentError (path `pattern.*`) for an invalid pattern
  */
 export function amd(pattern: SymmetricCsc): Int32Array {
-  const { blocks, amdOrder } = chooseBlocks(pattern);
-  return expand(blocks, amdOrder);
+  return orderWith(pattern, 'amd');
+}
+
+/** The vertex grouping `amd` and `nd` order, with its AMD order (see chooseBlocks). */
+export interface NodeBlocks {
+  readonly blocks: CompressedGraph;
+  readonly amdOrder: Int32Array;
+}
+
+/**
+ * The vertex grouping of a pattern that `amd` and `nd` order (see chooseBlocks), with the AMD
+ * order of its quotient graph.
+ * @throws ArgumentError (path `pattern.*`) for an invalid pattern
+ */
+export function nodeBlocks(pattern: SymmetricCsc): NodeBlocks {
+  return chooseBlocks(pattern);
 }
 
 /**
