@@ -19,7 +19,9 @@ export function assembleModel(model: Model): AssembledModel {
 
 /** Lowest `count` modes with one of our engines. */
 export function solveModes(K: SymmetricCsc, M: SymmetricCsc, count: number, engine: 'sparse' | 'dense'): EigenResult {
-  return engine === 'dense' ? solve(K, M, { count, method: 'dense' }) : solve(K, M, { count });
+  // K and M come from assembly, as in modalAnalysis: M is semidefinite by construction, so the
+  // cheap mass checks suffice there too (massCheck: 'minors'), the route a model takes.
+  return engine === 'dense' ? solve(K, M, { count, method: 'dense', massCheck: 'minors' }) : solve(K, M, { count, massCheck: 'minors' });
 }
 
 /** First of `keys` that the stats hold (solve reports analyseMs, factorizeMs, iterationMs, verifyMs, nnzL). */

@@ -10,18 +10,20 @@
  * start vector kept M-orthogonal to the modes already found, until the counts agree.
  */
 import { AbortedError, ArgumentError, FactorizationError, VerificationError } from '../errors';
-import type { OrderingName, SymbolicFactor } from '../linalg/ldlt/types';
+import type { LdltFactor, OrderingName, SymbolicFactor } from '../linalg/ldlt/types';
 import type { SymmetricCsc } from '../linalg/sparse/symmetric';
 import { assertAccepted } from './accept';
+import { checkMassSemidefinite, type MassCheck } from './definiteness';
 import { denseEigen } from './dense/index';
 import { lanczos, type ProgressCallback } from './lanczos';
 import { inverseOperator, matrixOperator, type BlockOperator } from './operators';
 import { SHIFT_NUDGE, ShiftedPencil } from './pencil';
-import { rayleighRitz } from './ritz';
-import { sturmCheck } from './sturm';
+import { rayleighRitzOperator } from './ritz';
+import { lowestModesShift, type LowestModesShift } from './shift';
+import { STURM_PIVOT_TOLERANCE, sturmCheck } from './sturm';
 import { subspaceIteration } from './subspace';
 import type { EigenMethod, EigenResult, SturmCheck } from './types';
-import { matrixNorm1, orthogonalityError, residuals } from './verify';
+import { matrixNorm1, modeChecks, orthogonalityError, residuals } from './verify';
 
 /** Methods `solve` accepts: `auto`, `dense` (= the dense default, Cholesky), or a named one. */
 export type SolveMethod = 'auto' | 'dense' | EigenMethod;
@@ -35,9 +37,11 @@ export type SolveMethod = 'auto' | 'dense' | EigenMethod;
 export const DENSE_CROSSOVER = 150;
 
 /**
- * Free-free structures (K singular): the lowest-modes shift is σ = −FREE_SHIFT · trace(K)/trace(M),
- * a small fraction of a typical eigenvalue, so that K − σM is positive definite, rigid-body modes
- * have the largest θ = 1/(λ − σ) and come out first, with λ ≈ 0 (possibly a tiny negative number).
+ * Free-free structures (K singular): the lowest-modes shift is at most σ = −FREE_SHIFT ·
+ * trace(K)/trace(M), a small fraction of a typical eigenvalue, so that K − σM is positive
+ * definite, rigid-body modes have the largest θ = 1/(λ − σ) and come out first, with λ ≈ 0
+ * (possibly a tiny negative number). When Sturm counts find an eigenvalue that is not ≈ 0 below
+ * that, |σ| is reduced to its scale (shift.ts, lowestModesShift).
  */
 export const FREE_SHIFT = 1e-6;
 
@@ -75,8 +79,9 @@ export interface SolveOptions {
   method?: SolveMethod;
   /**
    * Explicit shift σ (rad²/s²) of the sparse methods. Default: lowest modes, 0 if K is positive
-   * definite, else −FREE_SHIFT · trace(K)/trace(M); `near`: the target; `range`: each window's
-   * midpoint. @defaultValue automatic
+   * definite, else a negative σ sized by Sturm counts to the lowest eigenvalue that is not ≈ 0,
+   * at most −FREE_SHIFT · trace(K)/trace(M) (shift.ts); `near`: the target; `range`: each
+   * window's midpoint. @defaultValue automatic
    */
   shift?: number;
   /**
@@ -109,6 +114,14 @@ export interface SolveOptions {
    * analysis, with the estimate, before anything large is allocated. @defaultValue FACTOR_MEMORY_LIMIT (8 GiB)
    */
   maxFactorBytes?: number;
+  /**
+   * How M is checked to be positive semidefinite (definiteness.ts): `complete` adds one sparse
+   * LDLᵀ factorization of the diagonally scaled M where the O(nnz) tests (diagonal, 2 × 2 minors,
+   * scaled diagonal dominance) prove nothing; `minors` skips it, for a mass matrix that is
+   * semidefinite by construction (assembled from element mass matrices and point masses).
+   * @defaultValue 'complete' (MASS_CHECK_DEFAULTS.check)
+   */
+  massCheck?: MassCheck;
 }
 
 /** Defaults of {@link SolveOptions} (those that have a fixed value). */
@@ -193,43 +206,16 @@ function validate(K: SymmetricCsc, M: SymmetricCsc, o: Resolved): void {
     throw new ArgumentError(`tolerance is ${o.tolerance}; pass a number in (0, 1e-8) so that results can meet the 1e-8 residual target`, 'tolerance');
   }
   if (!Number.isInteger(o.seed)) throw new ArgumentError(`seed is ${o.seed}; pass an integer`, 'seed');
-  checkMassSemidefinite(M);
+  checkStiffnessFinite(K);
+  checkMassSemidefinite(M, { check: o.massCheck, ordering: o.ordering, maxFactorBytes: o.maxFactorBytes });
 }
 
-/**
- * Necessary conditions for M to be positive semidefinite, O(nnz): every diagonal entry ≥ 0, and
- * every 2 × 2 principal minor ≥ 0, i.e. |m_ij| ≤ √(m_ii m_jj) (up to round-off). A mass matrix
- * that breaks them has a negative eigenvalue, and K x = λ M x then has modes of negative "mass"
- * that no solver here can return correctly; refusing beats a quiet wrong answer. (A complete
- * test needs a factorization; the Sturm counts and the M-orthonormality check catch the rest.)
- */
-function checkMassSemidefinite(M: SymmetricCsc): void {
-  const { n, colPtr, rowIdx, values } = M;
-  const d = new Float64Array(n);
-  let maxDiag = 0;
+/** Finite entries of K (K's symmetry is built into its lower storage; its pattern is checked by analyse). */
+function checkStiffnessFinite(K: SymmetricCsc): void {
+  const { n, colPtr, rowIdx, values } = K;
   for (let j = 0; j < n; j++) {
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const v = values[p];
-      if (!Number.isFinite(v)) throw new ArgumentError(`entry (${rowIdx[p]}, ${j}) is ${v}; a mass matrix holds finite numbers`, `M(${rowIdx[p]}, ${j})`);
-      if (rowIdx[p] === j) d[j] = v;
-    }
-    if (d[j] < 0) {
-      throw new ArgumentError(`diagonal entry ${d[j]} of row ${j} is negative, so M is not positive semidefinite; masses and inertias must be ≥ 0 (check the sign)`, `M(${j}, ${j})`);
-    }
-    if (d[j] > maxDiag) maxDiag = d[j];
-  }
-  const slack = 1e-14 * maxDiag;
-  for (let j = 0; j < n; j++) {
-    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const i = rowIdx[p];
-      if (i === j) continue;
-      const bound = Math.sqrt(d[i] * d[j]) * (1 + 1e-8) + slack;
-      if (Math.abs(values[p]) > bound) {
-        throw new ArgumentError(
-          `|m(${i}, ${j})| = ${Math.abs(values[p])} exceeds √(m(${i}, ${i})·m(${j}, ${j})) = ${Math.sqrt(d[i] * d[j])}, so M is not positive semidefinite; check the coupling mass between these DOFs`,
-          `M(${i}, ${j})`,
-        );
-      }
+      if (!Number.isFinite(values[p])) throw new ArgumentError(`entry (${rowIdx[p]}, ${j}) is ${values[p]}; a stiffness matrix holds finite numbers (check the file or the element properties)`, `K(${rowIdx[p]}, ${j})`);
     }
   }
 }
@@ -379,9 +365,7 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
   }
   const tv = performance.now();
   o.onProgress?.('verify', 0);
-  const m = values.length;
-  const res = residuals(K, M, values, vectors, run.normK);
-  const orth = orthogonalityError(M, vectors, m);
+  const { residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, run.normK);
   if (o.verify) assertAccepted(values, res, orth, sturm);
   o.onProgress?.('verify', 1);
   const verifyMs = performance.now() - tv;
@@ -482,15 +466,22 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
   const p = newValues.length;
   const m = m0 + p;
   if (p === 0) return exhausted;
-  const x = new Float64Array(n * m);
-  const mx = new Float64Array(n * m);
-  x.set(pool.x.subarray(0, n * m0));
-  mx.set(pool.mx.subarray(0, n * m0));
-  x.set(newX.subarray(0, n * p), n * m0);
-  mx.set(newMX.subarray(0, n * p), n * m0);
-  const kx = new Float64Array(n * m);
-  run.kop.applyMany(x, kx, m);
-  pool.values = rayleighRitz(x, kx, mx, n, m, new Float64Array(256 * m));
+  // The first run's vectors are used where the method left them (its own buffers, free now);
+  // later runs are appended to a copy of the pool.
+  let x: Float64Array;
+  let mx: Float64Array;
+  if (m0 === 0) {
+    x = newX.subarray(0, n * p);
+    mx = newMX.subarray(0, n * p);
+  } else {
+    x = new Float64Array(n * m);
+    mx = new Float64Array(n * m);
+    x.set(pool.x.subarray(0, n * m0));
+    mx.set(pool.mx.subarray(0, n * m0));
+    x.set(newX.subarray(0, n * p), n * m0);
+    mx.set(newMX.subarray(0, n * p), n * m0);
+  }
+  pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m));
   pool.x = x;
   pool.mx = mx;
   pool.m = m;
@@ -507,9 +498,10 @@ function operatorsAt(
   sigma: number,
   direction: 1 | -1,
   attempts?: number,
-): { inv: BlockOperator; shift: number; negative: number; minPivotRatio: number } {
+  pivotTolerance?: number,
+): { inv: BlockOperator; factor: LdltFactor; shift: number; negative: number; minPivotRatio: number } {
   run.o.onProgress?.('factorize', 0);
-  const f = run.pencil.factorAt(sigma, direction, attempts);
+  const f = run.pencil.factorAt(sigma, direction, attempts, pivotTolerance === undefined ? {} : { pivotTolerance });
   run.o.onProgress?.('factorize', 1);
   checkAbort(run.o);
   const inv = inverseOperator(f.factor);
@@ -527,7 +519,7 @@ function operatorsAt(
       run.applications += k;
     },
   };
-  return { inv: counted, shift: f.shift, negative: f.factor.negativePivots, minPivotRatio: f.factor.minPivotRatio };
+  return { inv: counted, factor: f.factor, shift: f.shift, negative: f.factor.negativePivots, minPivotRatio: f.factor.minPivotRatio };
 }
 
 function shortOfModes(run: Run, found: number, count: number): VerificationError {
@@ -563,6 +555,8 @@ function timedSturm(run: Run, check: () => SturmCheck): SturmCheck {
 function solveLowest(run: Run, count: number): Found {
   const { pencil, o } = run;
   let op: ReturnType<typeof operatorsAt> | undefined;
+  let freeChoice: LowestModesShift | undefined;
+  let freeTolerance: number | undefined;
   if (o.shift !== undefined) op = operatorsAt(run, o.shift, -1);
   else {
     // σ = 0 when K is clearly positive definite: no negative pivot and none smaller than
@@ -574,25 +568,32 @@ function solveLowest(run: Run, count: number): Found {
       if (!(e instanceof FactorizationError)) throw e;
       op = undefined;
     }
-    // … else a small negative shift (free-free: rigid-body modes at λ ≈ 0), moved down until no
-    // eigenvalue lies below it (Sturm count 0) or three tries are spent.
+    // … else a small negative shift (free-free: rigid-body modes at λ ≈ 0), sized by Sturm
+    // counts to the lowest eigenvalue that is not ≈ 0 (shift.ts), moved down until no eigenvalue
+    // lies below it (Sturm count 0) or three tries are spent. K − σM is then positive definite,
+    // so a pivot far below the factorization's default tolerance is real, not a breakdown.
     if (!op) {
-      let s = -FREE_SHIFT * pencil.typicalEigenvalue;
+      freeChoice = lowestModesShift(pencil, FREE_SHIFT * pencil.typicalEigenvalue);
+      let s = -freeChoice.magnitude;
       for (let tries = 0; tries < 3; tries++, s *= 100) {
-        op = operatorsAt(run, s, -1);
+        op = operatorsAt(run, s, -1, undefined, STURM_PIVOT_TOLERANCE);
         if (op.negative === 0) break;
       }
+      freeTolerance = STURM_PIVOT_TOLERANCE;
     }
   }
   const shift = op!.shift;
   let inv: BlockOperator | undefined = op!.inv;
+  let factor: LdltFactor | undefined = op!.factor;
   op = undefined;
   // The check gap follows the returned modes (sturm.ts, STURM_GAP · λ_max). Only a free-free
   // result made of rigid-body modes alone (all λ ≈ 0, round-off of either sign) needs a floor,
   // at the resolution of the negative shift; with σ ≥ 0 no returned mode is ≈ 0. A floor from
   // trace(K)/trace(M) would put the check far above λ_max on a stiffness contrast (e.g. 1e8
   // between members), and every mode below it would then have to be computed.
-  const minimumGap = shift < 0 ? 1e-3 * Math.abs(shift) : 0;
+  // With a searched shift, the floor of the search (below which eigenvalues are ≈ 0) is the
+  // resolution: σ may then sit close to λ₁, and 1e-3·|σ| can be below the rigid modes' round-off.
+  const minimumGap = shift < 0 ? Math.max(1e-3 * Math.abs(shift), freeChoice?.floor ?? 0) : 0;
   const pool = emptyPool();
   let want = count;
   let sturm: SturmCheck | undefined;
@@ -600,7 +601,11 @@ function solveLowest(run: Run, count: number): Found {
     // After a failed Sturm check (a missed copy of a repeated mode, rare) the iteration factor
     // is made again at the same shift: one more factorization, in exchange for never holding
     // two factors at once (peak memory, DESIGN.md).
-    inv ??= operatorsAt(run, shift, -1, 1).inv;
+    if (!inv) {
+      const again = operatorsAt(run, shift, -1, 1, freeTolerance);
+      inv = again.inv;
+      factor = again.factor;
+    }
     const exhausted = extend(run, pool, inv, shift, want);
     if (pool.m < count) {
       if (exhausted) throw countError(count, pool.m, pencil.n);
@@ -611,8 +616,10 @@ function solveLowest(run: Run, count: number): Found {
     }
     if (!o.verify) break;
     // Release the iteration factor before the check factorizes K − σM at its own shift, so
-    // that the two factors are never alive together.
+    // that the two factors are never alive together; the check writes into its storage.
     inv = undefined;
+    if (factor) pencil.recycle(factor);
+    factor = undefined;
     sturm = timedSturm(run, () => sturmCheck(pencil, pool.values, count, 0, { minimumGap }));
     if (sturm.passed) break;
     const inside = sturm.returnedBelow + (sturm.extraBelow ?? 0);

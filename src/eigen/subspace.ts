@@ -131,6 +131,10 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
   rng.fill(X);
   const omega = new Float64Array(q);
   const res = new Float64Array(q);
+  const opRes = new Float64Array(q).fill(Infinity);
+  const opFloor = new Float64Array(q).fill(Infinity);
+  let opConverged = false;
+  let residualsConverged = false;
   const best = new Float64Array(p).fill(Infinity);
   let stale = 0;
   let stagnated = false;
@@ -164,6 +168,36 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
     // X̄ = (K − σM)⁻¹ M X  (Bathe eq. 11.107)
     inverse.applyMany(MX, Xb, qa);
     deflate(Xb, 0, qa);
+    // Residual of the last Ritz pairs in the shift-inverted space, ‖OP x − θx‖ ≤ tol·|θ|‖x‖
+    // with θ = 1/(λ − σ), from X̄ at no extra solve. The K-relative residual alone is too loose
+    // when stiffnesses differ by orders of magnitude: the soft members' modes can meet it while
+    // their eigenvalues are still off by percents; this test is relative to each mode's own θ.
+    if (iterations > 1) {
+      opConverged = true;
+      // Round-off floor: X̄ carries an error of about ε·|θ_max|·‖x‖ (θ_max the largest wanted
+      // |θ|), which no iteration removes; below 1000 times that a pair counts as converged.
+      let thetaMax = 0;
+      for (let r = 0; r < want; r++) thetaMax = Math.max(thetaMax, Math.abs(1 / omega[order[r]]));
+      for (let r = 0; r < want; r++) {
+        const c = order[r];
+        const theta = 1 / omega[c];
+        const x = X.subarray(c * n, (c + 1) * n);
+        const y = Xb.subarray(c * n, (c + 1) * n);
+        let d2 = 0;
+        let x2 = 0;
+        for (let i = 0; i < n; i++) {
+          const d = y[i] - theta * x[i];
+          d2 += d * d;
+          x2 += x[i] * x[i];
+        }
+        const floor = (1e3 * Number.EPSILON * thetaMax) / Math.abs(theta);
+        opFloor[c] = floor > o.tolerance ? o.tolerance : Infinity; // above its floor, a pair's op residual is no longer information
+        opRes[c] = Math.sqrt(d2) / (Math.abs(theta) * Math.sqrt(x2) || 1);
+        if (!(opRes[c] <= Math.max(o.tolerance, floor))) opConverged = false;
+      }
+      // The pairs of the last iteration met both tests: return them (X, ω and the order are theirs).
+      if (opConverged && residualsConverged) break;
+    }
     // Projection of K − σM onto X̄ is X̄ᵀ M X, since (K − σM) X̄ = M X (Bathe eq. 11.108).
     gram(Xb, MX, n, qa, qa, A);
     // M-orthonormalise X̄ before projecting M (rank-revealing Gram–Schmidt, ritz.ts): with a
@@ -236,18 +270,20 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
       if (res[c] <= o.tolerance) nconv++;
     }
     o.onProgress?.('subspace', nconv / p);
-    if (nconv === p) break;
-    // Span exhausted below p pairs: every pair it holds is converged, no more can come.
-    if (qa < p && nconv === want) break;
-    // Stagnation at round-off: no wanted residual improved by 10 % for 10 iterations while all
-    // are within 100× the tolerance; further iterations cannot improve them.
+    // All wanted pairs met the K-relative test (or the span holds fewer than p pairs and every
+    // one did): the next iteration's X̄ confirms them in the shift-inverted space, or goes on.
+    residualsConverged = nconv === p || (qa < p && nconv === want);
+    // Stagnation at round-off: no wanted residual (either test; the shift-inverted one of the
+    // previous pairs) improved by 10 % for 10 iterations while all are within 100× the
+    // tolerance; further iterations cannot improve them.
     let improved = false;
     let within = true;
     for (let r = 0; r < want; r++) {
       const c = order[r];
-      if (!(res[c] >= 0.9 * best[r])) improved = true;
-      if (res[c] < best[r]) best[r] = res[c];
-      if (res[c] > 100 * o.tolerance) within = false;
+      const worst = Math.max(res[c], Math.min(opRes[c], opFloor[c]));
+      if (!(worst >= 0.9 * best[r])) improved = true;
+      if (worst < best[r]) best[r] = worst;
+      if (worst > 100 * o.tolerance) within = false;
     }
     stale = improved ? 0 : stale + 1;
     if (within && stale >= 10 && want === p) {
@@ -268,5 +304,5 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
     vectors.set(X.subarray(s * n, (s + 1) * n), c * n);
     massVectors.set(MX.subarray(s * n, (s + 1) * n), c * n);
   }
-  return { eigenvalues, vectors, massVectors, residuals, converged: nconv === p || stagnated, convergedCount: nconv, iterations };
+  return { eigenvalues, vectors, massVectors, residuals, converged: (nconv === p && opConverged) || stagnated, convergedCount: nconv, iterations };
 }

@@ -188,7 +188,7 @@ export function whatIf(base: ModalAnalysis, changes: readonly DesignChange[], op
   assertNoMechanism(assembled);
   const symbolic = given ?? whatIfSymbolic(asm0);
   const m0 = base.modes.length;
-  const eigen = solve(assembled.stiffness, assembled.mass, { ...solverOptions, count: count ?? m0, symbolic });
+  const eigen = solve(assembled.stiffness, assembled.mass, { massCheck: 'minors', ...solverOptions, count: count ?? m0, symbolic });
   const analysis = summariseModes(assembled, eigen, { referencePoint: referencePoint ?? base.referencePoint, directions });
 
   // ---- first-order predictions from the original modes ----
