@@ -1,8 +1,11 @@
 /**
- * One measurement, run in its own child process so that its peak memory is its own: build the
- * model, assemble K and M, then solve with one engine, and write a JSON record.
+ * One measurement, in two child processes so that the solve's peak memory is its own, as
+ * SciPy's is: a preparing child builds the model, assembles K and M, and writes them to files
+ * (raw binary for our engines, Matrix Market for SciPy); a solving child reads K and M back —
+ * nothing of the model is in its memory, as nothing is in SciPy's — solves with one engine, and
+ * writes a JSON record.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeMatrixMarket } from '../src/io/matrix-market';
 import { nnz } from '../src/linalg/sparse/symmetric';
@@ -65,25 +68,82 @@ export interface CaseRecord {
   error?: string;
 }
 
+/** What the preparing child leaves beside the matrices. */
+export interface Preparation {
+  modelSeconds: number;
+  assemblySeconds: number;
+  nodes: number;
+  elements: number;
+}
+
 /**
- * Runs one (case, engine) measurement. When `mtxDir` is given, also writes K.mtx and M.mtx there
- * after the measurement (for the SciPy reference).
+ * Writes a symmetric CSC matrix as raw little-endian arrays: Int32 n, Int32 nnz, Int32 colPtr
+ * (n + 1), Int32 rowIdx (nnz), zero padding to 8 bytes, Float64 values (nnz).
  */
-/** Model generation and assembly; only K, M and counts leave, so the model can be collected. */
-function prepare(c: BenchCase): { K: SymmetricCsc; M: SymmetricCsc; nodes: number; elements: number; modelMs: number; assemblyMs: number } {
+function writeCsc(path: string, a: SymmetricCsc): void {
+  const nz = a.colPtr[a.n];
+  const ints = 2 + a.n + 1 + nz;
+  const pad = (ints * 4) % 8;
+  const buf = Buffer.alloc(ints * 4 + pad + nz * 8);
+  const head = new Int32Array(buf.buffer, buf.byteOffset, ints);
+  head[0] = a.n;
+  head[1] = nz;
+  head.set(a.colPtr, 2);
+  head.set(a.rowIdx.subarray(0, nz), 3 + a.n);
+  Buffer.from(a.values.buffer, a.values.byteOffset, nz * 8).copy(buf, ints * 4 + pad);
+  writeFileSync(path, buf);
+}
+
+/** Reads what writeCsc wrote; the arrays view the file's buffer (no copy). */
+function readCsc(path: string): SymmetricCsc {
+  const file = readFileSync(path);
+  // A fresh buffer of its own: offset 0, so the views below are aligned.
+  const buf = file.byteOffset % 8 === 0 ? file : Buffer.from(file);
+  const n = buf.readInt32LE(0);
+  const nz = buf.readInt32LE(4);
+  const ints = 2 + n + 1 + nz;
+  const pad = (ints * 4) % 8;
+  return {
+    n,
+    colPtr: new Int32Array(buf.buffer, buf.byteOffset + 8, n + 1),
+    rowIdx: new Int32Array(buf.buffer, buf.byteOffset + 8 + (n + 1) * 4, nz),
+    values: new Float64Array(buf.buffer, buf.byteOffset + ints * 4 + pad, nz),
+  };
+}
+
+/**
+ * The preparing child: model generation and assembly (timed), then K and M written to `dir`
+ * (K.bin, M.bin, prep.json) and, with `mtx`, as Matrix Market for SciPy (K.mtx, M.mtx).
+ */
+export function prepareCase(c: BenchCase, dir: string, mtx: boolean): Preparation {
   let t = performance.now();
   const model = c.model();
-  const modelMs = performance.now() - t;
+  const modelSeconds = (performance.now() - t) / 1000;
   t = performance.now();
   // assembleModel validates the model first (as a file read would), then assembles.
   const asm = assembleModel(model);
-  const assemblyMs = performance.now() - t;
-  return { K: asm.stiffness, M: asm.mass, nodes: model.nodes.length, elements: model.elements.length, modelMs, assemblyMs };
+  const assemblySeconds = (performance.now() - t) / 1000;
+  const prep: Preparation = { modelSeconds, assemblySeconds, nodes: model.nodes.length, elements: model.elements.length };
+  writeCsc(join(dir, 'K.bin'), asm.stiffness);
+  writeCsc(join(dir, 'M.bin'), asm.mass);
+  if (mtx) {
+    writeFileSync(join(dir, 'K.mtx'), writeMatrixMarket(asm.stiffness, `stiffness of ${c.name}, N/m`));
+    writeFileSync(join(dir, 'M.mtx'), writeMatrixMarket(asm.mass, `mass of ${c.name}, kg`));
+  }
+  writeFileSync(join(dir, 'prep.json'), JSON.stringify(prep));
+  return prep;
 }
 
-export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undefined): CaseRecord {
+/**
+ * The solving child: reads K and M that {@link prepareCase} wrote to `dir` and solves with one
+ * engine. Only K, M and the solver are in this process, as only K and M are in SciPy's.
+ */
+export function runCase(c: BenchCase, engine: EngineName, dir: string): CaseRecord {
   const sec = (ms: number): number => ms / 1000;
-  const { K, M, nodes, elements, modelMs, assemblyMs } = prepare(c);
+  const prep = JSON.parse(readFileSync(join(dir, 'prep.json'), 'utf8')) as Preparation;
+  const { nodes, elements } = prep;
+  const K = readCsc(join(dir, 'K.bin'));
+  const M = readCsc(join(dir, 'M.bin'));
   let t = 0;
 
   const record: CaseRecord = {
@@ -95,7 +155,7 @@ export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undef
     elements,
     nnzK: nnz(K),
     nnzM: nnz(M),
-    seconds: { model: sec(modelMs), assembly: sec(assemblyMs), analyse: NaN, factorization: NaN, iterations: NaN, verify: NaN, solve: NaN, total: NaN },
+    seconds: { model: prep.modelSeconds, assembly: prep.assemblySeconds, analyse: NaN, factorization: NaN, iterations: NaN, verify: NaN, solve: NaN, total: NaN },
     solveCpuSeconds: NaN,
     warmSolveSeconds: NaN,
     nnzL: NaN,
@@ -108,8 +168,8 @@ export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undef
     stats: {},
   };
 
-  // The solve-phase peak counts K, M and the solver, as SciPy's does: collect the model and the
-  // assembly's garbage first when the child runs with --expose-gc (the parent passes it).
+  // The solve-phase peak counts K, M and the solver, as SciPy's does: collect what reading left
+  // behind first when the child runs with --expose-gc (the parent passes it).
   const gc = (globalThis as { gc?: () => void }).gc;
   if (gc) gc();
   record.rssBeforeSolveMiB = process.memoryUsage().rss / 2 ** 20;
@@ -153,10 +213,5 @@ export function runCase(c: BenchCase, engine: EngineName, mtxDir: string | undef
   record.solvePeakMiB = canReset ? highWaterMiB() : NaN;
   record.peakMiB = processPeakMiB();
 
-  if (mtxDir !== undefined && record.error === undefined) {
-    mkdirSync(mtxDir, { recursive: true });
-    writeFileSync(join(mtxDir, 'K.mtx'), writeMatrixMarket(K, `stiffness of ${c.name}, N/m`));
-    writeFileSync(join(mtxDir, 'M.mtx'), writeMatrixMarket(M, `mass of ${c.name}, kg`));
-  }
   return record;
 }

@@ -13,7 +13,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { CASES, selectCases } from './cases';
 import type { BenchCase } from './cases';
-import { MODE_COUNT, runCase } from './child';
+import { MODE_COUNT, prepareCase, runCase } from './child';
 import type { CaseRecord } from './child';
 import type { EngineName } from './engine';
 import { growthExponent } from './fit';
@@ -70,10 +70,14 @@ function parseFlags(argv: readonly string[]): Flags {
 // ---- child side ----
 
 function childMain(argv: readonly string[]): void {
-  const [name, engine, outFile, mtxDir] = argv;
+  const [name, engine, outFile, dir, mtx] = argv;
   const c = CASES.find((x) => x.name === name);
   if (!c) throw new Error(`no case ${name}`);
-  const record = runCase(c, engine as EngineName, mtxDir || undefined);
+  if (engine === 'prepare') {
+    prepareCase(c, dir, mtx === 'mtx');
+    return;
+  }
+  const record = runCase(c, engine as EngineName, dir);
   // Write then rename, so the parent never reads a half-written record.
   writeFileSync(`${outFile}.part`, JSON.stringify(record));
   renameSync(`${outFile}.part`, outFile);
@@ -85,13 +89,25 @@ function childMain(argv: readonly string[]): void {
 const EXIT_GRACE_MS = 20_000;
 
 /**
+ * Builds and assembles a case in a child process of its own and leaves K and M in `dir` (binary,
+ * and Matrix Market when `mtx`); returns an error text, or undefined when it worked.
+ */
+function prepareInChild(c: BenchCase, dir: string, mtx: boolean, timeoutMs: number): string | undefined {
+  mkdirSync(dir, { recursive: true });
+  const args = [...process.execArgv, process.argv[1], '--child', c.name, 'prepare', '', dir, mtx ? 'mtx' : ''];
+  const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'], timeout: timeoutMs });
+  if (r.status === 0 && existsSync(join(dir, 'prep.json'))) return undefined;
+  return `preparing the matrices failed (${r.signal ? `killed by ${r.signal}` : `exit status ${r.status}`})`;
+}
+
+/**
  * Runs one measurement in a child process. The record file is what counts: a child that wrote it
  * but does not exit within EXIT_GRACE_MS is killed (and the note says so); one that runs past
  * the time limit is killed without a record.
  */
-function runChild(c: BenchCase, engine: EngineName, work: string, mtxDir: string | undefined, timeoutMs: number): Promise<Outcome> {
+function runChild(c: BenchCase, engine: EngineName, work: string, dir: string, timeoutMs: number): Promise<Outcome> {
   const out = join(work, `${c.name}.${engine}.json`);
-  const args = [...process.execArgv, '--expose-gc', process.argv[1], '--child', c.name, engine, out, mtxDir ?? ''];
+  const args = [...process.execArgv, '--expose-gc', process.argv[1], '--child', c.name, engine, out, dir];
   return new Promise((done) => {
     const child = spawn(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'] });
     const start = Date.now();
@@ -172,22 +188,29 @@ async function parentMain(argv: readonly string[]): Promise<void> {
 
   try {
     for (const c of selected) {
-      const mtxDir = haveScipy ? join(work, c.name) : undefined;
+      const dir = join(work, c.name);
+      progress(`${c.name}: model and assembly`);
+      const failed = prepareInChild(c, dir, haveScipy, timeoutMs);
+      if (failed !== undefined) {
+        progress(`${c.name}: ${failed}`);
+        sparse.set(c.name, { case: c.name, engine: 'sparse', error: failed });
+        continue;
+      }
       progress(`${c.name}: sparse`);
-      const r = await runChild(c, 'sparse', work, mtxDir, timeoutMs);
+      const r = await runChild(c, 'sparse', work, dir, timeoutMs);
       sparse.set(c.name, r);
       if (!ok(r)) progress(`${c.name}: ${r.error}`);
-      if (haveScipy && mtxDir && existsSync(join(mtxDir, 'K.mtx'))) {
+      if (haveScipy && ok(r) && existsSync(join(dir, 'K.mtx'))) {
         progress(`${c.name}: scipy`);
-        scipy.set(c.name, runScipy(script!, mtxDir, timeoutMs));
-        rmSync(mtxDir, { recursive: true, force: true });
+        scipy.set(c.name, runScipy(script!, dir, timeoutMs));
       }
       if (c.family === 'dense') {
         progress(`${c.name}: our dense solver`);
-        dense.set(c.name, await runChild(c, 'dense', work, undefined, timeoutMs));
+        dense.set(c.name, await runChild(c, 'dense', work, dir, timeoutMs));
         progress(`${c.name}: ml-matrix dense route`);
-        ml.set(c.name, await runChild(c, 'mlmatrix', work, undefined, timeoutMs));
+        ml.set(c.name, await runChild(c, 'mlmatrix', work, dir, timeoutMs));
       }
+      rmSync(dir, { recursive: true, force: true });
     }
   } finally {
     rmSync(work, { recursive: true, force: true });
@@ -241,15 +264,15 @@ async function parentMain(argv: readonly string[]): Promise<void> {
   for (const f of failures) lines.push(`FAILED ${f}`);
   lines.push('');
   lines.push('Times in seconds, wall clock. assembly = validateModel + assemble; total = assembly + solve call (analyse + factor + iter + verify: residuals, orthogonality, Sturm count).');
-  lines.push('peak MiB: whole child process (getrusage maxRSS), model generation included.');
+  lines.push('peak MiB: whole solving child (getrusage maxRSS); the model is built and assembled in a child of its own, which writes K and M to files that the solving child reads, as SciPy reads them.');
   lines.push("check: every mode's relative residual ≤ 1e-8, M-orthonormality ≤ 1e-10, Sturm count passed.");
   if (haveScipy) {
     lines.push('SciPy: eigsh(K, 20, M, sigma=0) (ARPACK + SuperLU), one thread, on the same K and M read from Matrix Market;');
     lines.push('  SciPy s = eigsh call only; time ours/SciPy = our solve call / SciPy s (assembly excluded: SciPy gets K and M ready);');
     lines.push('  cpu ours/SciPy: the same with process CPU time (ours counts the Node GC helper threads too);');
-    lines.push('  SciPy MiB and mem ours/SciPy compare peak resident memory during the solve alone, K and M loaded (our model collected first), on both sides');
+    lines.push('  SciPy MiB and mem ours/SciPy compare peak resident memory during the solve alone, K and M loaded from files, on both sides');
     lines.push('  (high-water mark reset before the solve); solver Δmem = the same peaks minus the resident memory just before the solve');
-    lines.push('  (the memory the solver itself added; Node keeps freed pages of the model resident); max rel Δλ = max over the 20 modes of |λ_ours − λ_SciPy| / λ_SciPy.');
+    lines.push('  (the memory the solver itself added); max rel Δλ = max over the 20 modes of |λ_ours − λ_SciPy| / λ_SciPy.');
     const failed = [...scipy.entries()].filter(([, v]) => 'error' in v);
     for (const [n, v] of failed) lines.push(`  SciPy failed on ${n}: ${(v as { error: string }).error}`);
   } else {
