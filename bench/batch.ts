@@ -11,6 +11,7 @@
  * and the CPU seconds of each run beside them.
  */
 import { availableParallelism, loadavg } from 'node:os';
+import { Worker } from 'node:worker_threads';
 import { performance as perf } from 'node:perf_hooks';
 import { solveBatch, type VariantResult } from '../src/node/batch';
 import { applyMergePatch, solveVariant, SymbolicCache } from '../src/node/variant';
@@ -63,6 +64,50 @@ export interface BatchBenchResult {
   readonly runs: readonly BatchBenchRun[];
   /** Largest relative difference of any frequency between the batch runs and the serial run. */
   readonly maxRelativeDifference: number;
+  /** What the machine allows: speed-up of two plain kernels on every core against one. */
+  readonly ceiling: ParallelCeiling;
+}
+
+/** Speed-ups of two synthetic kernels, every core against one (the same work per thread). */
+export interface ParallelCeiling {
+  /** Arithmetic in registers (square roots). */
+  readonly compute: number;
+  /** Streaming over a 32 MiB array (memory bandwidth). */
+  readonly memory: number;
+}
+
+const KERNELS = `
+const { parentPort, workerData } = require('node:worker_threads');
+function compute() { let s = 0; for (let i = 0; i < 2e8; i++) s += Math.sqrt(i) * 1e-9; return s; }
+function memory() { const a = new Float64Array(4 << 20); let s = 0; for (let r = 0; r < 40; r++) for (let i = 0; i < a.length; i++) { a[i] += i * 1e-9; s += a[i]; } return s; }
+const t = performance.now();
+(workerData === 'compute' ? compute : memory)();
+parentPort.postMessage(performance.now() - t);
+`;
+
+/** Wall ms of `threads` workers each running one kernel at once. */
+async function kernelWall(kind: 'compute' | 'memory', threads: number): Promise<number> {
+  const t = performance.now();
+  await Promise.all(Array.from({ length: threads }, () => new Promise<void>((done, fail) => {
+    const w = new Worker(KERNELS, { eval: true, workerData: kind });
+    w.once('message', () => void w.terminate().then(() => done()));
+    w.once('error', fail);
+  })));
+  return performance.now() - t;
+}
+
+/**
+ * The machine's own ceiling for a parallel speed-up: the same kernel on one worker and on
+ * `cores` workers at once (each doing the full work), speed-up = cores × t₁ / t_cores.
+ */
+export async function parallelCeiling(cores: number): Promise<ParallelCeiling> {
+  const out: Record<string, number> = {};
+  for (const kind of ['compute', 'memory'] as const) {
+    const one = await kernelWall(kind, 1);
+    const all = await kernelWall(kind, cores);
+    out[kind] = (cores * one) / all;
+  }
+  return { compute: out.compute, memory: out.memory };
 }
 
 type Scales = { chord: number; web: number };
@@ -134,7 +179,8 @@ export async function runBatchBench(options: BatchBenchOptions = {}): Promise<Ba
   }
   const one = runs.find((r) => r.workers === 1)?.ms;
   const withOne = runs.map((r) => ({ ...r, speedupOneWorker: one !== undefined && r.workers !== 'serial' ? one / r.ms : NaN }));
-  return { variants: n, dofs, count, cores, runs: withOne, maxRelativeDifference: maxDiff };
+  const ceiling = await parallelCeiling(cores);
+  return { variants: n, dofs, count, cores, runs: withOne, maxRelativeDifference: maxDiff, ceiling };
 }
 
 function cpuMs(u: NodeJS.CpuUsage): number {
@@ -157,6 +203,7 @@ export function formatBatchBench(r: BatchBenchResult): string {
     '   caller s = time the calling thread was busy: making, sending and receiving the variants, or solving them when serial;',
     '   a wall-time speed-up needs idle cores: with a load average near the core count, other work holds them)',
     `  largest relative frequency difference vs serial: ${r.maxRelativeDifference.toExponential(1)}`,
+    `  this machine's own ceiling, ${r.cores} threads against 1 (same work each): arithmetic ×${r.ceiling.compute.toFixed(2)}, streaming a 32 MiB array ×${r.ceiling.memory.toFixed(2)}`,
   ];
   return lines.join('\n');
 }
