@@ -298,7 +298,7 @@ async function parentMain(argv: readonly string[]): Promise<void> {
     lines.push('');
     lines.push('Dense baselines (plane frames sized to the DOF count), solve call in seconds (wall) from the same K and M;');
     lines.push("ours dense = solve(K, M, { method: 'dense' }); ml-matrix = Cholesky of M, EigenvalueDecomposition of L⁻¹KL⁻ᵀ, modes x = L⁻ᵀy;");
-    lines.push('each "warm" column is a second identical solve call in the same child (JIT compiled), and the ratio of ml-matrix to it:');
+    lines.push('each "warm" column is the median of 5 identical solve calls after 5 warm-up calls in the same child (JIT compiled), and the ratio of ml-matrix to it:');
     const dh = ['case', 'DOF', 'ours sparse s', 'warm', 'ours dense s', 'warm', 'ml-matrix s', 'ml-matrix/ours sparse', 'warm', 'ml-matrix/ours dense', 'warm', 'cpu: ml-matrix/ours sparse', 'SciPy s', 'max rel Δλ ml-matrix'];
     const drows: string[][] = [];
     for (const c of denseCases) {
