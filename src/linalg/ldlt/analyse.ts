@@ -31,12 +31,39 @@ export const AUTO_ENOUGH_FLOPS_PER_ENTRY = 1000;
 export const AUTO_ENOUGH_MIN_N = 1000;
 
 /**
- * Relaxed supernode amalgamation (Ashcraft & Grimes 1989): a child supernode is merged into
- * its parent when the merged supernode has at most `cols[t]` columns and a fraction of explicit
- * zeros below `zeros[t]` for some t, or any size with a fraction below `zerosAny`. The
- * thresholds are those of CHOLMOD's supernodal analysis defaults (from memory).
+ * Relaxed supernode amalgamation (Ashcraft & Grimes 1989, "The influence of relaxed supernode
+ * partitions on the multifrontal method"): a child supernode is merged into its parent when the
+ * merged supernode has at most `maxColumns` columns and at most a fraction `maxZeros` of its
+ * lower trapezoid is explicit zeros.
  */
-const RELAX = { always: 4, cols: [16, 48], zeros: [0.8, 0.1], zerosAny: 0.05 } as const;
+export interface RelaxThresholds {
+  /** Widest merged supernode, columns, ≥ 1. */
+  readonly maxColumns: number;
+  /** Largest fraction of explicit zeros in a merged supernode, in [0, 1]. */
+  readonly maxZeros: number;
+}
+
+/**
+ * Merge up to 6 columns with at most half of the block zeros. Measured (Node 20, one core,
+ * AMD ordering, in-process interleaved runs, best of 18) on the 83,784-DOF truss footbridge
+ * against CHOLMOD's default thresholds (4 columns always, 16 columns below 80 % zeros, 48 below
+ * 10 %, any size below 5 %; from memory): one-vector solves 10–22 % faster over three runs, the
+ * factorization as fast (22–24 ms against 23–25 ms; 43 ms with no amalgamation), 1.14e6 stored
+ * entries of L against 1.53e6. The solves stream every stored entry, zeros included, so a small
+ * cap pays: a cap of 4 columns solved as fast as 6, a cap of 8 about 10 % slower. On the 4,704-
+ * and 11,664-DOF building frames (6 DOF per node) nothing got slower (factorization within 3 %,
+ * solves 2–8 % faster), with 12–17 % fewer stored entries.
+ */
+export const RELAX_DEFAULTS: RelaxThresholds = { maxColumns: 6, maxZeros: 0.5 };
+
+/** {@link AnalyseOptions} plus the amalgamation of the supernodal factor. */
+export interface SupernodalAnalyseOptions extends AnalyseOptions {
+  /**
+   * Relaxed amalgamation thresholds, or false for fundamental supernodes only (Liu, Ng &
+   * Peyton 1993). @defaultValue {@link RELAX_DEFAULTS}
+   */
+  relax?: RelaxThresholds | false;
+}
 
 /**
  * Internal result of the symbolic phase of the supernodal LDLᵀ. Supernode s owns the
@@ -342,9 +369,20 @@ export interface OrderingCandidate {
  *   and the one with the fewest factorization flops is kept
  * @throws ArgumentError when the pattern is malformed or the ordering is unknown / not a permutation
  */
-export function analyse(pattern: SymmetricCsc, options: AnalyseOptions = {}): SymbolicFactor {
+export function analyse(pattern: SymmetricCsc, options: SupernodalAnalyseOptions = {}): SymbolicFactor {
   // An option given as undefined takes its default.
   const ordering: OrderingName | Int32Array = options.ordering ?? ANALYSE_DEFAULTS.ordering;
+  const relax = options.relax ?? RELAX_DEFAULTS;
+  if (relax !== false) {
+    if (!(Number.isInteger(relax?.maxColumns) && relax.maxColumns >= 1)) {
+      throw new ArgumentError(`maxColumns is ${relax?.maxColumns}; pass an integer ≥ 1 (default ${RELAX_DEFAULTS.maxColumns}), or relax: false`, 'options.relax.maxColumns');
+    }
+    if (!(relax.maxZeros >= 0 && relax.maxZeros <= 1)) {
+      throw new ArgumentError(`maxZeros is ${relax.maxZeros}; pass a fraction in [0, 1] (default ${RELAX_DEFAULTS.maxZeros})`, 'options.relax.maxZeros');
+    }
+  }
+  const maxColumns = relax === false ? 1 : relax.maxColumns;
+  const maxZeros = relax === false ? 0 : relax.maxZeros;
   checkPattern(pattern);
   const n = pattern.n;
 
@@ -413,7 +451,7 @@ export function analyse(pattern: SymmetricCsc, options: AnalyseOptions = {}): Sy
   const nfs = fStartList.length;
   fStartList.push(n);
 
-  // --- Relaxed amalgamation (Ashcraft & Grimes 1989), top-down as CHOLMOD does: merge
+  // --- Relaxed amalgamation (Ashcraft & Grimes 1989; RELAX_DEFAULTS), top-down as CHOLMOD does: merge
   // supernode s into the group that starts at s+1 when s+1 holds the parent of s's last column.
   // Zeros of a merged block [a, b] (a trapezoid whose rows below b are those of column b):
   // m(m+1)/2 + m(cc[b]−1) − Σ cc[a..b], with m = b − a + 1. ------------------------------------
@@ -431,7 +469,7 @@ export function analyse(pattern: SymmetricCsc, options: AnalyseOptions = {}): Sy
     const m = b - a + 1;
     const total = (m * (m + 1)) / 2 + m * (cc[b] - 1);
     const z = (total - (prefix[b + 1] - prefix[a])) / total;
-    if (m <= RELAX.always || (m <= RELAX.cols[0] && z < RELAX.zeros[0]) || (m <= RELAX.cols[1] && z < RELAX.zeros[1]) || z < RELAX.zerosAny) {
+    if (m <= maxColumns && z <= maxZeros) {
       mergedUp[s] = 1;
       groupEnd[s] = b;
     }
