@@ -2,26 +2,16 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ArgumentError } from '../src/errors';
 import { parseArgs } from '../src/cli/args';
 import { runScreen, SCREEN_SPEC, parseBandOption } from '../src/cli/commands/screen';
 import { runResponse, RESPONSE_SPEC } from '../src/cli/commands/response';
 import { ENGINEERING_CAUTION } from '../src/io/caution';
 import { findAll, parseXml } from './svg-helpers';
+import { pathOf } from './argument-path';
 
 const model = new URL('../examples/footbridge.json', import.meta.url).pathname;
 const screen = (...argv: string[]) => runScreen(parseArgs(SCREEN_SPEC, argv));
 const response = (...argv: string[]) => runResponse(parseArgs(RESPONSE_SPEC, argv));
-
-function pathOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return (e as ArgumentError).path;
-  }
-  return 'no error';
-}
 
 describe('eigenframe screen', () => {
   it('default walking bands: text with verdict, coverage and caution', () => {

@@ -1,6 +1,5 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { ArgumentError } from '../src/errors';
 import { modalAnalysis } from '../src/modal/analysis';
 import { BAND_PRESETS, machineBand, MACHINE_BAND_DEFAULTS, validateBands, type BandSpec } from '../src/modal/bands';
 import { classifyModes, CLASSIFY_DEFAULTS } from '../src/modal/classify';
@@ -12,6 +11,7 @@ import { parseModel } from '../src/model/read';
 import type { Model } from '../src/model/types';
 import { planeBeamModel } from './model-helpers';
 import { portalFrameModel } from './response-helpers';
+import { pathOf } from './argument-path';
 
 const footbridge = parseModel(readFileSync(new URL('../examples/footbridge.json', import.meta.url), 'utf8'), 'footbridge.json');
 
@@ -19,16 +19,6 @@ const footbridge = parseModel(readFileSync(new URL('../examples/footbridge.json'
 function scaled(model: Model, s: number): Model {
   const materials = Object.fromEntries(Object.entries(model.materials).map(([k, m]) => [k, { ...m, E: m.E * s, ...(m.G !== undefined ? { G: m.G * s } : {}) }]));
   return { ...model, materials };
-}
-
-function pathOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return (e as ArgumentError).path;
-  }
-  return 'no error';
 }
 
 describe('excitation bands', () => {

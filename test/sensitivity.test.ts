@@ -9,6 +9,7 @@ import { assemble } from '../src/model/assemble';
 import { validateModel } from '../src/model/read';
 import type { Model } from '../src/model/types';
 import { planeBeamModel, relErr } from './model-helpers';
+import { pathOf } from './argument-path';
 
 const E = 2.1e11, rho = 7850;
 
@@ -172,15 +173,7 @@ describe('what-if redesign', () => {
   });
 
   it('bad changes are typed errors naming the change', () => {
-    const path = (f: () => unknown): string => {
-      try {
-        f();
-      } catch (e) {
-        expect(e).toBeInstanceOf(ArgumentError);
-        return (e as ArgumentError).path;
-      }
-      return 'no error';
-    };
+    const path = pathOf;
     expect(path(() => whatIf(base, []))).toBe('changes');
     expect(path(() => whatIf(base, [{ group: { elements: ['nope'] }, stiffnessScale: 2 }]))).toBe('changes[0].group.elements[0]');
     expect(path(() => whatIf(base, [{ group: { section: 'nope' } }]))).toBe('changes[0].group.section');

@@ -1,11 +1,11 @@
 /** Frequency-response chart (src/io/svg-response.ts): well-formed, curve and marks where the numbers put them. */
 import { describe, expect, it } from 'vitest';
-import { ArgumentError } from '../src/errors';
 import { frequencyResponseSvg } from '../src/io/svg-response';
 import { validateBand } from '../src/modal/bands';
 import { frequencySweep, harmonicResponse } from '../src/modal/harmonic';
 import { allModes, sdofModel } from './response-helpers';
 import { findAll, parseXml, type XmlElement } from './svg-helpers';
+import { pathOf } from './argument-path';
 
 // One mass on a spring (invented numbers): k = 1e5 N/m, m = 100 kg → ωₙ = 31.62 rad/s, fₙ = 5.033 Hz.
 const k = 1e5, m = 100, zeta = 0.02, p0 = 250;
@@ -84,15 +84,7 @@ describe('frequency-response chart', () => {
   });
 
   it('names the bad option', () => {
-    const path = (o: object): string => {
-      try {
-        frequencyResponseSvg(result, o);
-      } catch (e) {
-        expect(e).toBeInstanceOf(ArgumentError);
-        return (e as ArgumentError).path;
-      }
-      return 'no error';
-    };
+    const path = (o: object): string => pathOf(() => frequencyResponseSvg(result, o));
     expect(path({ response: 1 })).toBe('response');
     expect(path({ quantity: 'force' })).toBe('quantity');
     expect(path({ scale: 'db' })).toBe('scale');

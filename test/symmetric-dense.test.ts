@@ -1,17 +1,7 @@
 /** Dense input to the symmetric sparse storage (src/linalg/sparse/symmetric.ts fromDenseArray). */
 import { describe, expect, it } from 'vitest';
-import { ArgumentError } from '../src/errors';
 import { fromDenseArray, toDenseArray } from '../src/linalg/sparse/symmetric';
-
-function pathOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return (e as ArgumentError).path;
-  }
-  return 'no error';
-}
+import { pathOf } from './argument-path';
 
 describe('fromDenseArray', () => {
   it('round-trips a symmetric matrix, and accepts round-off asymmetry', () => {
