@@ -14,6 +14,7 @@ import { join, resolve } from 'node:path';
 import { parseAst } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as library from '../src/index';
+import { simplySupportedBeam } from './beam-fixture';
 
 const ROOT = resolve(new URL('..', import.meta.url).pathname);
 const BUNDLE = join(ROOT, 'dist', 'browser', 'eigenframe.js');
@@ -74,17 +75,7 @@ describe('dist/browser/eigenframe.js', () => {
   });
 
   it('evaluates with no module resolution (from a data: URL) and solves a simply supported beam', async () => {
-    // Simply supported steel beam, 6 m, 12 elements (invented for the test).
-    const beam = {
-      format: 'eigenframe-model/1',
-      title: 'beam',
-      space: 'plane',
-      materials: { steel: { E: 2.1e11, density: 7850 } },
-      sections: { box: { A: 1.5e-3, Iz: 2.2e-6 } },
-      nodes: Array.from({ length: 13 }, (_, i) => ({ id: `n${i}`, x: i / 2, y: 0 })),
-      elements: Array.from({ length: 12 }, (_, i) => ({ id: `e${i}`, kind: 'beam', nodes: [`n${i}`, `n${i + 1}`], material: 'steel', section: 'box' })),
-      supports: [{ node: 'n0', fixed: ['ux', 'uy'] }, { node: 'n12', fixed: ['uy'] }],
-    };
+    const beam = simplySupportedBeam('beam');
     const script = join(dir, 'load.mjs');
     writeFileSync(
       script,

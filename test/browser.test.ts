@@ -22,6 +22,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { modalAnalysis } from '../src/modal/analysis';
 import { Cdp } from './chromium';
 import { parseModel } from '../src/model/read';
+import { simplySupportedBeam } from './beam-fixture';
 
 const CHROMIUM = '/usr/bin/chromium';
 const ROOT = resolve(new URL('..', import.meta.url).pathname);
@@ -198,17 +199,7 @@ describe('docs/app in headless chromium', () => {
       return st;
     };
     await c.send('DOM.enable', {}, sessionId);
-    // Simply supported steel beam, 6 m, 12 elements (invented for the test).
-    const beam = {
-      format: 'eigenframe-model/1',
-      title: 'picked beam',
-      space: 'plane',
-      materials: { steel: { E: 2.1e11, density: 7850 } },
-      sections: { box: { A: 1.5e-3, Iz: 2.2e-6 } },
-      nodes: Array.from({ length: 13 }, (_, i) => ({ id: `n${i}`, x: i / 2, y: 0 })),
-      elements: Array.from({ length: 12 }, (_, i) => ({ id: `e${i}`, kind: 'beam', nodes: [`n${i}`, `n${i + 1}`], material: 'steel', section: 'box' })),
-      supports: [{ node: 'n0', fixed: ['ux', 'uy'] }, { node: 'n12', fixed: ['uy'] }],
-    };
+    const beam = simplySupportedBeam('picked beam');
     expect(await pick('beam.json', JSON.stringify(beam))).toBe('done');
     const picked = JSON.parse(await evaluate('document.getElementById("modes").dataset.frequencies')) as number[];
     const nodeBeam = modalAnalysis(parseModel(JSON.stringify(beam)), { count: 12 });
