@@ -18,6 +18,7 @@ import { parseModel, validateModel } from '../src/model/read';
 import { unionPattern } from '../src/linalg/sparse/symmetric';
 import { BATCH_DEFAULTS, solveBatch } from '../src/node/batch';
 import { patternHash, solveVariant, SymbolicCache, SYMBOLIC_CACHE_DEFAULTS } from '../src/node/variant';
+import { simplySupportedBeam } from './beam-fixture';
 
 const root = new URL('..', import.meta.url);
 const footbridgeText = readFileSync(new URL('examples/footbridge.json', root), 'utf8');
@@ -58,22 +59,9 @@ function scaledChord(base: unknown, s: number): unknown {
   return m;
 }
 
-/** Simply supported plane beam of `parts` elements (steel, 100 × 100 mm box, invented for the test). */
+/** Simply supported plane beam of `parts` elements (the shared test fixture). */
 function planeBeam(parts: number, title: string): unknown {
-  const L = 6;
-  return {
-    format: 'eigenframe-model/1',
-    title,
-    space: 'plane',
-    materials: { steel: { E: 2.1e11, density: 7850 } },
-    sections: { box: { A: 1.5e-3, Iz: 2.2e-6 } },
-    nodes: Array.from({ length: parts + 1 }, (_, i) => ({ id: `n${i}`, x: (L * i) / parts, y: 0 })),
-    elements: Array.from({ length: parts }, (_, i) => ({ id: `e${i}`, kind: 'beam', nodes: [`n${i}`, `n${i + 1}`], material: 'steel', section: 'box' })),
-    supports: [
-      { node: 'n0', fixed: ['ux', 'uy'] },
-      { node: `n${parts}`, fixed: ['uy'] },
-    ],
-  };
+  return simplySupportedBeam(title, parts);
 }
 
 function relDiff(a: number, b: number): number {
