@@ -23,7 +23,7 @@ import { lowestModesShift, type LowestModesShift } from './shift';
 import { STURM_PIVOT_TOLERANCE, sturmCheck } from './sturm';
 import { subspaceIteration } from './subspace';
 import type { EigenMethod, EigenResult, SturmCheck } from './types';
-import { matrixNorm1, modeChecks, orthogonalityError, residuals } from './verify';
+import { matrixNorm1, modeChecks } from './verify';
 
 /** Methods `solve` accepts: `auto`, `dense` (= the dense default, Cholesky), or a named one. */
 export type SolveMethod = 'auto' | 'dense' | EigenMethod;
@@ -268,25 +268,43 @@ function solveDense(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'chol
     if (o.range) sturm = rangeCheck(pencil, o.range, m);
     else sturm = sturmCheck(pencil, all.eigenvalues, m, first, { window: o.near !== undefined, minimumGap: 1e-9 * pencil.typicalEigenvalue });
   }
-  const normK = matrixNorm1(K);
-  const res = residuals(K, M, values, vectors, normK);
-  const orth = orthogonalityError(M, vectors, m);
-  if (o.verify) assertAccepted(values, res, orth, sturm);
+  return verifiedResult(K, M, values, vectors, sturm, method, o.verify, undefined, tv, (verifyMs) => ({
+    ...all.stats,
+    factorizations: pencil?.factorizations ?? 0,
+    verifyMs,
+    totalMs: performance.now() - t0,
+  }));
+}
+
+/**
+ * The result of a solve: residuals and M-orthonormality from one pass over the modes
+ * (verify.ts `modeChecks`), the acceptance test when `verify`, and the stats, which receive the
+ * milliseconds spent here since `tv`.
+ */
+function verifiedResult(
+  K: SymmetricCsc,
+  M: SymmetricCsc,
+  values: Float64Array,
+  vectors: Float64Array,
+  sturm: SturmCheck | undefined,
+  method: EigenMethod,
+  verify: boolean,
+  normK: number | undefined,
+  tv: number,
+  stats: (verifyMs: number) => Record<string, number>,
+): EigenResult {
+  const { residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, normK);
+  if (verify) assertAccepted(values, res, orth, sturm);
   const verifyMs = performance.now() - tv;
   return {
-    n,
+    n: K.n,
     eigenvalues: values,
     vectors,
     residuals: res,
     orthogonalityError: orth,
     ...(sturm ? { sturm } : {}),
     method,
-    stats: {
-      ...all.stats,
-      factorizations: pencil?.factorizations ?? 0,
-      verifyMs,
-      totalMs: performance.now() - t0,
-    },
+    stats: stats(verifyMs),
   };
 }
 
@@ -365,19 +383,7 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
   }
   const tv = performance.now();
   o.onProgress?.('verify', 0);
-  const { residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, run.normK);
-  if (o.verify) assertAccepted(values, res, orth, sturm);
-  o.onProgress?.('verify', 1);
-  const verifyMs = performance.now() - tv;
-  return {
-    n,
-    eigenvalues: values,
-    vectors,
-    residuals: res,
-    orthogonalityError: orth,
-    ...(sturm ? { sturm } : {}),
-    method,
-    stats: {
+  const result = verifiedResult(K, M, values, vectors, sturm, method, o.verify, run.normK, tv, (verifyMs) => ({
       iterations: run.iterations,
       restarts: run.restarts,
       operatorApplications: run.applications,
@@ -390,8 +396,9 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
       iterationMs: run.iterationMs,
       verifyMs: verifyMs + run.verifyMs,
       totalMs: performance.now() - t0,
-    },
-  };
+  }));
+  o.onProgress?.('verify', 1);
+  return result;
 }
 
 interface Found {
