@@ -3,10 +3,9 @@
  * command that takes loads (buckling, response).
  */
 import { ArgumentError } from '../errors';
+import { DOF_NAMES } from '../model/dofs';
 import type { NodalLoad } from '../model/loads';
 import type { DofName } from '../model/types';
-
-const DOFS: readonly string[] = ['ux', 'uy', 'uz', 'rx', 'ry', 'rz'];
 
 /**
  * Parses `NODE:DOF:VALUE[,NODE:DOF:VALUE...]` into nodal loads. A node id that contains ":" is
@@ -25,7 +24,7 @@ export function parseNodalLoads(text: string, option = '--load'): NodalLoad[] {
     const node = item.slice(0, a);
     const dof = item.slice(a + 1, b);
     const raw = item.slice(b + 1);
-    if (!DOFS.includes(dof)) throw new ArgumentError(`${which} names DOF "${dof}"; use one of ${DOFS.join(', ')}`, option);
+    if (!(DOF_NAMES as readonly string[]).includes(dof)) throw new ArgumentError(`${which} names DOF "${dof}"; use one of ${DOF_NAMES.join(', ')}`, option);
     const value = Number(raw);
     if (raw.trim() === '' || !Number.isFinite(value)) throw new ArgumentError(`${which} has value "${raw}", not a finite number; give the load in N (N·m on rotations)`, option);
     return { node, dof: dof as DofName, value };

@@ -7,6 +7,7 @@ import type { CommandSpec, ParsedArgs } from '../args';
 import { readText, writeFilesAtomically } from '../files';
 import type { CommandOutput } from '../output';
 import { parseModel } from '../../model/read';
+import { DOF_NAMES } from '../../model/dofs';
 import type { DofName } from '../../model/types';
 import { modalAnalysis } from '../../modal/analysis';
 import { assemble } from '../../model/assemble';
@@ -53,10 +54,8 @@ export const RESPONSE_SPEC: CommandSpec = {
 /** Fewest modes the command superposes when --count is not given. */
 export const MIN_RESPONSE_MODES = 12;
 
-const DOFS: readonly DofName[] = ['ux', 'uy', 'uz', 'rx', 'ry', 'rz'];
-
 function dofName(text: string, option: string): DofName {
-  if (!DOFS.includes(text as DofName)) throw new ArgumentError(`"${text}" is not a DOF; use ${DOFS.join(', ')}`, option);
+  if (!DOF_NAMES.includes(text as DofName)) throw new ArgumentError(`"${text}" is not a DOF; use ${DOF_NAMES.join(', ')}`, option);
   return text as DofName;
 }
 
