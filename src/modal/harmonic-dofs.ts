@@ -3,6 +3,7 @@
  * DOFs by node and DOF name, and taking the modes used. Loads are nodal loads (model/loads).
  */
 import { ArgumentError } from '../errors';
+import { freeDofLookup, notFreeReason } from '../model/dofs';
 import type { AssembledModel, DofName } from '../model/types';
 import type { ModalAnalysis } from './analysis-types';
 
@@ -18,7 +19,7 @@ export type DofRef = number | { readonly node: string; readonly dof: DofName };
 export function resolveDofs(assembled: AssembledModel, refs: readonly DofRef[], path: string): Int32Array {
   const n = assembled.dofs.length;
   const out = new Int32Array(refs.length);
-  let byName: Map<string, number> | undefined;
+  let freeDof: ReturnType<typeof freeDofLookup> | undefined;
   refs.forEach((ref, k) => {
     const p = `${path}[${k}]`;
     if (typeof ref === 'number') {
@@ -26,15 +27,11 @@ export function resolveDofs(assembled: AssembledModel, refs: readonly DofRef[], 
       out[k] = ref;
       return;
     }
-    if (!byName) {
-      byName = new Map();
-      assembled.dofs.forEach((d, i) => byName!.set(`${d.node}\u0000${d.dof}`, i));
-    }
-    const i = byName.get(`${ref.node}\u0000${ref.dof}`);
+    freeDof ??= freeDofLookup(assembled);
+    const i = freeDof(ref.node, ref.dof);
     if (i === undefined) {
-      const known = assembled.model.nodes.some((nd) => nd.id === ref.node);
       throw new ArgumentError(
-        known
+        notFreeReason(assembled.model, ref.node, ref.dof) !== 'unknown node'
           ? `node "${ref.node}" has no free ${ref.dof} DOF (it is supported, or no element uses it); choose a DOF that moves`
           : `node "${ref.node}" is not in the model; check the node id`,
         p,

@@ -14,7 +14,7 @@
  *
  * Free DOFs are numbered in node order, then in the order ux, uy, uz, rx, ry, rz.
  */
-import type { DofInfo, DofName, Model } from './types';
+import type { AssembledModel, DofInfo, DofName, Model } from './types';
 
 /** DOF names in numbering order; the slot of a name is its index here. */
 export const DOF_NAMES: readonly DofName[] = ['ux', 'uy', 'uz', 'rx', 'ry', 'rz'];
@@ -25,6 +25,23 @@ export const SPACE_DOFS: Readonly<Record<'plane' | 'space', readonly DofName[]>>
   plane: ['ux', 'uy', 'rz'],
   space: ['ux', 'uy', 'uz', 'rx', 'ry', 'rz'],
 };
+
+/**
+ * Free DOF index of a node's DOF in an assembled model: a lookup built once over `asm.dofs`
+ * (so it serves hand-built assembled models without a dofMap too).
+ * @returns a function giving the index, or undefined when that DOF is not free
+ */
+export function freeDofLookup(asm: AssembledModel): (node: string, dof: DofName) => number | undefined {
+  const byName = new Map<string, number>();
+  asm.dofs.forEach((d, i) => byName.set(`${d.node}\u0000${d.dof}`, i));
+  return (node, dof) => byName.get(`${node}\u0000${dof}`);
+}
+
+/** Why a node's DOF is not free: the node is unknown, the DOF is supported, or nothing uses it. */
+export function notFreeReason(model: Model, node: string, dof: DofName): 'unknown node' | 'supported' | 'unused' {
+  if (!model.nodes.some((nd) => nd.id === node)) return 'unknown node';
+  return (model.supports ?? []).some((s) => s.node === node && s.fixed.includes(dof)) ? 'supported' : 'unused';
+}
 
 const BAR_PLANE = 0b000011;
 const BAR_SPACE = 0b000111;

@@ -3,7 +3,7 @@
  * cases, harmonic and transient responses), and their load vector over the free DOFs.
  */
 import { ArgumentError } from '../errors';
-import { SPACE_DOFS } from './dofs';
+import { freeDofLookup, notFreeReason, SPACE_DOFS } from './dofs';
 import type { AssembledModel, DofName } from './types';
 
 /** A concentrated force or moment at one DOF of one node. */
@@ -34,8 +34,7 @@ export function nodalLoadVector(asm: AssembledModel, loads: LoadCase, path = 'lo
   if (!Array.isArray(loads) || loads.length === 0) {
     throw new ArgumentError('no load given; give at least one nodal load { node, dof, value }', path);
   }
-  const free = new Map<string, number>();
-  asm.dofs.forEach((d, i) => free.set(`${d.node}\u0000${d.dof}`, i));
+  const freeDof = freeDofLookup(asm);
   const nodes = new Set(model.nodes.map((nd) => nd.id));
   const allowed = SPACE_DOFS[model.space];
   const f = new Float64Array(asm.dofs.length);
@@ -45,11 +44,10 @@ export function nodalLoadVector(asm: AssembledModel, loads: LoadCase, path = 'lo
     if (!nodes.has(l.node)) throw new ArgumentError(`node "${l.node}" is not in the model; use the id of one of its ${model.nodes.length} nodes`, `${where}.node`);
     if (!allowed.includes(l.dof)) throw new ArgumentError(`DOF "${l.dof}" does not exist in a ${model.space} model; use one of ${allowed.join(', ')}`, `${where}.dof`);
     if (typeof l.value !== 'number' || !Number.isFinite(l.value)) throw new ArgumentError(`value is ${String(l.value)}; give a finite load in N (N·m on rotations)`, `${where}.value`);
-    const g = free.get(`${l.node}\u0000${l.dof}`);
+    const g = freeDof(l.node, l.dof);
     if (g === undefined) {
-      const supported = (model.supports ?? []).some((s) => s.node === l.node && s.fixed.includes(l.dof));
       throw new ArgumentError(
-        supported
+        notFreeReason(model, l.node, l.dof) === 'supported'
           ? `DOF ${l.dof} of node "${l.node}" is supported, so a load there goes straight into the support; load a free DOF`
           : `node "${l.node}" has no ${l.dof} DOF (no element, spring or mass there uses it); load a DOF the node has`,
         `${where}.dof`,
