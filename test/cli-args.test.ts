@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseArgs, commandHelp, type CommandSpec } from '../src/cli/args';
 import { frequencyRequest, eigenvalueOf, DEFAULT_COUNT } from '../src/cli/requests';
-import { ArgumentError } from '../src/errors';
+import { thrown } from './argument-path';
 
 const SPEC: CommandSpec = {
   name: 'demo',
@@ -14,16 +14,6 @@ const SPEC: CommandSpec = {
     { name: 'json', kind: 'flag', help: 'json' },
   ],
 };
-
-function thrown(f: () => unknown): ArgumentError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  throw new Error('expected an ArgumentError');
-}
 
 describe('command-line parsing', () => {
   it('reads positionals, flags and typed values in either spelling', () => {

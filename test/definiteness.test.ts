@@ -12,6 +12,7 @@ import { ArgumentError } from '../src/errors';
 import { CooBuilder, fromDenseArray, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import { assemble } from '../src/model/assemble';
 import { planeBeamModel } from './model-helpers';
+import { thrown } from './argument-path';
 
 /**
  * S(c) = I + c·B, B = [[0, 1, 1], [1, 0, −1], [1, −1, 0]]. B's characteristic polynomial is
@@ -36,22 +37,12 @@ function chainWithBlock(n: number, at: number, block: number[], d: [number, numb
   return { K: K.toCsc(), M: M.toCsc() };
 }
 
-function refusal(f: () => unknown): ArgumentError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  return expect.unreachable('expected an ArgumentError') as never;
-}
-
 describe('an indefinite mass matrix whose diagonal and 2 × 2 minors are all positive is refused', () => {
   // S(0.9): eigenvalues 1.9, 1.9, −0.8 (blockS above); minors 1 − 0.81 = 0.19 > 0.
   for (const method of ['dense', 'lanczos', 'subspace'] as const) {
     it(`S(0.9) inside a 300-DOF chain (${method}): path M, one negative eigenvalue, the fix`, () => {
       const { K, M } = chainWithBlock(300, 40, blockS(0.9));
-      const e = refusal(() => solve(K, M, { count: 3, method }));
+      const e = thrown(() => solve(K, M, { count: 3, method }));
       expect(e.path).toBe('M');
       expect(e.detail).toMatch(/not positive semidefinite: it has 1 negative eigenvalue/);
       expect(e.detail).toMatch(/check the signs of its coupling \(off-diagonal\) masses/);
@@ -62,7 +53,7 @@ describe('an indefinite mass matrix whose diagonal and 2 × 2 minors are all pos
     // M = D^{1/2} S(0.9) D^{1/2} is congruent to S(0.9): one negative eigenvalue (Sylvester),
     // although its size relative to max m_ii is tiny.
     const { M } = chainWithBlock(20, 5, blockS(0.9), [1000, 1000, 1e-3]);
-    const e = refusal(() => checkMassSemidefinite(M));
+    const e = thrown(() => checkMassSemidefinite(M));
     expect(e.path).toBe('M');
     expect(e.detail).toMatch(/1 negative eigenvalue/);
   });
@@ -73,7 +64,7 @@ describe('an indefinite mass matrix whose diagonal and 2 × 2 minors are all pos
     const S = blockS(0.9);
     for (const at of [0, 6]) for (let r = 0; r < 3; r++) for (let c = 0; c <= r; c++) b.add(at + r, at + c, S[3 * r + c]);
     for (const i of [3, 4, 5, 9, 10, 11]) b.add(i, i, 2);
-    const e = refusal(() => checkMassSemidefinite(b.toCsc()));
+    const e = thrown(() => checkMassSemidefinite(b.toCsc()));
     expect(e.detail).toMatch(/it has 2 negative eigenvalue/);
   });
 
@@ -81,7 +72,7 @@ describe('an indefinite mass matrix whose diagonal and 2 × 2 minors are all pos
     // δ = MASS_DEFINITENESS_TOLERANCE = 1e-12 (relative to the scaled unit diagonal).
     expect(MASS_DEFINITENESS_TOLERANCE).toBe(1e-12);
     const refused = chainWithBlock(9, 3, blockS(0.5 + 0.5e-9)).M;
-    expect(refusal(() => checkMassSemidefinite(refused)).path).toBe('M');
+    expect(thrown(() => checkMassSemidefinite(refused)).path).toBe('M');
     const accepted = chainWithBlock(9, 3, blockS(0.5 + 0.5e-14)).M;
     expect(checkMassSemidefinite(accepted).provedBy).toBe('factorization');
   });
@@ -167,12 +158,12 @@ describe('options and stiffness entries', () => {
     expect(MASS_CHECK_DEFAULTS).toEqual({ check: 'complete', ordering: 'auto', maxFactorBytes: 8 * 2 ** 30 });
     // solve() leaves massCheck unset, so MASS_CHECK_DEFAULTS.check applies: S(0.9) is refused.
     const { K, M } = chainWithBlock(10, 2, blockS(0.9));
-    expect(refusal(() => solve(K, M, { count: 1 })).path).toBe('M');
+    expect(thrown(() => solve(K, M, { count: 1 })).path).toBe('M');
   });
 
   it('an unknown massCheck is an ArgumentError naming the option', () => {
     const { K, M } = chainWithBlock(10, 2, blockS(0.2));
-    const e = refusal(() => solve(K, M, { count: 1, massCheck: 'full' as never }));
+    const e = thrown(() => solve(K, M, { count: 1, massCheck: 'full' as never }));
     expect(e.path).toBe('massCheck');
     expect(e.detail).toMatch(/'complete'.*'minors'/);
   });
@@ -185,7 +176,7 @@ describe('options and stiffness entries', () => {
   it('a non-finite stiffness entry names K(i, j)', () => {
     const { K, M } = chainWithBlock(10, 2, blockS(0.2));
     K.values[K.colPtr[4]] = NaN; // diagonal entry of column 4
-    const e = refusal(() => solve(K, M, { count: 1 }));
+    const e = thrown(() => solve(K, M, { count: 1 }));
     expect(e.path).toBe('K(4, 4)');
     expect(e.detail).toMatch(/is NaN; a stiffness matrix holds finite numbers/);
   });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { ArgumentError } from '../src/errors';
 import { solve } from '../src/eigen/solve';
 import { CooBuilder } from '../src/linalg/sparse/symmetric';
+import { thrown } from './argument-path';
 
 /**
  * A mass matrix must be positive semidefinite. Two necessary conditions are checked before any
@@ -19,23 +19,13 @@ function chain(n: number, mass: (b: CooBuilder) => void): { K: ReturnType<CooBui
   return { K: K.toCsc(), M: M.toCsc() };
 }
 
-function rejected(f: () => unknown): ArgumentError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  throw new Error('expected an ArgumentError');
-}
-
 describe('mass matrices that cannot be positive semidefinite are refused, naming the entry', () => {
   for (const method of ['dense', 'lanczos'] as const) {
     it(`negative diagonal (${method})`, () => {
       const { K, M } = chain(300, (b) => {
         for (let i = 0; i < 300; i++) b.add(i, i, i === 7 ? -1 : 1);
       });
-      const e = rejected(() => solve(K, M, { count: 3, method }));
+      const e = thrown(() => solve(K, M, { count: 3, method }));
       expect(e.path).toBe('M(7, 7)');
       expect(e.detail).toMatch(/negative.*check the sign/);
     });
@@ -45,7 +35,7 @@ describe('mass matrices that cannot be positive semidefinite are refused, naming
         for (let i = 0; i < 300; i++) b.add(i, i, 1);
         b.add(11, 10, 1.5);
       });
-      const e = rejected(() => solve(K, M, { count: 3, method }));
+      const e = thrown(() => solve(K, M, { count: 3, method }));
       expect(e.path).toBe('M(11, 10)');
     });
   }

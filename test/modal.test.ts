@@ -8,18 +8,9 @@ import { directionParticipation, participation, modalMasses } from '../src/modal
 import { summariseModes } from '../src/modal/summary';
 import { denseModes, handModel, randomSpd, sym } from './modal-dense';
 import type { DofName } from '../src/model/types';
+import { thrown } from './argument-path';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
-
-function argError(fn: () => unknown): ArgumentError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  throw new Error('expected an ArgumentError');
-}
 
 // Two-storey shear frame of Chopra's worked examples (Dynamics of Structures, ch. 10; the
 // parameters m₁ = 2m, m₂ = m, k₁ = 2k, k₂ = k are from memory). Closed forms derived here from
@@ -57,9 +48,9 @@ describe('frequencies', () => {
     expect(rel(f.angular[1], Math.sqrt((2 * k) / m))).toBeLessThan(1e-12);
   });
   it('NaN or infinite eigenvalue, negative frequency: ArgumentError with path', () => {
-    expect(argError(() => naturalFrequencies([1, NaN])).path).toBe('eigenvalues[1]');
-    expect(argError(() => naturalFrequencies([Infinity])).path).toBe('eigenvalues[0]');
-    expect(argError(() => frequencyToEigenvalue(-1)).path).toBe('frequency');
+    expect(thrown(() => naturalFrequencies([1, NaN])).path).toBe('eigenvalues[1]');
+    expect(thrown(() => naturalFrequencies([Infinity])).path).toBe('eigenvalues[0]');
+    expect(thrown(() => frequencyToEigenvalue(-1)).path).toBe('frequency');
   });
 });
 
@@ -97,8 +88,8 @@ describe('massNormalise', () => {
     }
   });
   it('zero shape or wrong length: ArgumentError', () => {
-    expect(argError(() => massNormalise(M2, Float64Array.from([1, 0, 0, 0]))).path).toBe('modes[1]');
-    expect(argError(() => massNormalise(M2, new Float64Array(3))).path).toBe('vectors');
+    expect(thrown(() => massNormalise(M2, Float64Array.from([1, 0, 0, 0]))).path).toBe('modes[1]');
+    expect(thrown(() => massNormalise(M2, new Float64Array(3))).path).toBe('vectors');
   });
   it('orientModes flips a mode whose peak is negative', () => {
     const v = Float64Array.from([0.2, -0.9, 0.5, 0.1]);
@@ -205,8 +196,8 @@ describe('influence vectors and centre of mass', () => {
     expect(Array.from(r.subarray(3, 6))).toEqual([1, 3, 1]);
   });
   it('direction absent from a plane model, bad reference point: ArgumentError', () => {
-    expect(argError(() => influenceVector(model, 'uz')).path).toBe('direction');
-    expect(argError(() => influenceVectors(model, { referencePoint: [0, NaN, 0] })).path).toBe('referencePoint');
+    expect(thrown(() => influenceVector(model, 'uz')).path).toBe('direction');
+    expect(thrown(() => influenceVectors(model, { referencePoint: [0, NaN, 0] })).path).toBe('referencePoint');
   });
 
   it('consistent-mass beam, inclined: total mass ρAL per translation, centre at mid-length, rz = ρAL³/12', () => {
@@ -308,7 +299,7 @@ describe('participation: space model identity', () => {
   it('modes of the wrong size: ArgumentError on "modes"', () => {
     const modes = denseModes(K2, M2);
     const model3 = handModel('plane', [['a', 0, 0, 0]], [[0, 'ux'], [0, 'uy'], [0, 'rz']], sym(randomSpd(3, 1)), sym(randomSpd(3, 2)));
-    expect(argError(() => participation(model3, modes)).path).toBe('modes');
+    expect(thrown(() => participation(model3, modes)).path).toBe('modes');
   });
 });
 

@@ -15,22 +15,12 @@ import { assemble } from '../src/model/assemble';
 import { solve } from '../src/eigen/solve';
 import { readMatrixMarket } from '../src/io/matrix-market';
 import { toDenseArray } from '../src/linalg/sparse/symmetric';
-import { ArgumentError } from '../src/errors';
+import { thrown } from './argument-path';
 
 const dir = mkdtempSync(join(tmpdir(), 'eigenframe-reference-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const run = (...argv: string[]) => runReference(parseArgs(REFERENCE_SPEC, argv));
-
-function thrown(f: () => unknown): ArgumentError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  throw new Error('expected an ArgumentError');
-}
 
 /** Frequencies (Hz) of a written model, solved by eigenframe. */
 function solvedFrequencies(modelPath: string, count: number): number[] {

@@ -4,17 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { compareValues, parseResults } from '../src/reference/compare';
-import { ArgumentError } from '../src/errors';
-
-function thrown(f: () => unknown): ArgumentError {
-  try {
-    f();
-  } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
-  }
-  throw new Error('expected an ArgumentError');
-}
+import { thrown } from './argument-path';
 
 describe('compareValues', () => {
   it('gives the per-mode relative error and passes within tolerance', () => {
