@@ -37,7 +37,7 @@ export {
 } from './buckling';
 export {
   eigenvalueSensitivity, groupSensitivity, rankMembers, resolveGroup, REPEATED_GAP,
-  type MemberGroup, type ElementSensitivity, type ModeSensitivity, type SensitivityOptions, type ResolvedGroup, type GroupSensitivity, type RankBy,
+  type MemberGroup, type SensitivityFigures, type ElementSensitivity, type ModeSensitivity, type SensitivityOptions, type ResolvedGroup, type GroupSensitivity, type RankBy,
 } from './sensitivity';
 export {
   whatIf, scaledModel, whatIfSymbolic, stiffnessScaleFor, STIFFNESS_TARGET_DEFAULTS,

@@ -42,30 +42,37 @@ export interface MemberGroup {
   readonly section?: string;
 }
 
+/**
+ * Sensitivity figures of one mode to a member or a member group (a group's are the sums over its
+ * members, its energy share the sum of theirs).
+ */
+export interface SensitivityFigures {
+  /** dλ/dα for the stiffness scaled by α (k_e → α k_e) at α = 1, rad²/s² (≥ 0). */
+  readonly stiffness: number;
+  /** dλ/dβ for the mass scaled by β (m_e → β m_e) at β = 1, rad²/s² (≤ 0). */
+  readonly mass: number;
+  /** dλ/ds for stiffness and mass scaled together (material added), rad²/s². */
+  readonly material: number;
+  /** Member (or group) mass ρAL, kg. */
+  readonly memberMass: number;
+  /** material / memberMass: eigenvalue gained per kg added this way, rad²/s² per kg (NaN when massless). */
+  readonly efficiency: number;
+  /** df/dα, Hz per unit stiffness scale. */
+  readonly stiffnessFrequency: number;
+  /** df/dβ, Hz per unit mass scale. */
+  readonly massFrequency: number;
+  /** Share of the mode's strain energy stored there, φ_eᵀk_eφ_e / φᵀKφ, 0..1. */
+  readonly energyShare: number;
+}
+
 /** Sensitivity of one mode to one member. */
-export interface ElementSensitivity {
+export interface ElementSensitivity extends SensitivityFigures {
   /** Element id. */
   readonly element: string;
   /** Index in model.elements. */
   readonly index: number;
   /** Section name of the element. */
   readonly section: string;
-  /** dλ/dα for k_e → α k_e at α = 1, rad²/s² (≥ 0). */
-  readonly stiffness: number;
-  /** dλ/dβ for m_e → β m_e at β = 1, rad²/s² (≤ 0). */
-  readonly mass: number;
-  /** dλ/ds for k_e and m_e scaled together (material added to the member), rad²/s². */
-  readonly material: number;
-  /** Member mass ρAL, kg. */
-  readonly memberMass: number;
-  /** material / memberMass: eigenvalue gained per kg added this way, rad²/s² per kg (NaN for a massless member). */
-  readonly efficiency: number;
-  /** df/dα, Hz per unit stiffness scale. */
-  readonly stiffnessFrequency: number;
-  /** df/dβ, Hz per unit mass scale. */
-  readonly massFrequency: number;
-  /** Share of the mode's strain energy stored in this member, φ_eᵀk_eφ_e / φᵀKφ, 0..1. */
-  readonly energyShare: number;
 }
 
 /** Sensitivities of one mode. */
@@ -223,27 +230,11 @@ export function resolveGroup(model: Model, group: MemberGroup, path = 'group'): 
 }
 
 /** Sensitivity of one mode to a member group (the sums over its members). */
-export interface GroupSensitivity {
+export interface GroupSensitivity extends SensitivityFigures {
   /** Group label. */
   readonly name: string;
   /** Element indices of the group. */
   readonly elements: readonly number[];
-  /** dλ/dα for the whole group's stiffness scaled by α, rad²/s². */
-  readonly stiffness: number;
-  /** dλ/dβ for the group's mass scaled by β, rad²/s². */
-  readonly mass: number;
-  /** dλ/ds with stiffness and mass scaled together, rad²/s². */
-  readonly material: number;
-  /** Group mass, kg. */
-  readonly memberMass: number;
-  /** material / memberMass, rad²/s² per kg. */
-  readonly efficiency: number;
-  /** df/dα, Hz. */
-  readonly stiffnessFrequency: number;
-  /** df/dβ, Hz. */
-  readonly massFrequency: number;
-  /** Share of the mode's strain energy in the group, 0..1. */
-  readonly energyShare: number;
 }
 
 /**
