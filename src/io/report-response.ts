@@ -5,14 +5,7 @@
 import type { HarmonicResult } from '../modal/harmonic';
 import type { PedestrianResult } from '../modal/harmonic-pedestrian';
 import { ENGINEERING_CAUTION } from './caution';
-
-function sig(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return v > 0 ? 'inf' : '-';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  return v.toFixed(Math.max(0, digits - 1 - Math.floor(Math.log10(a))));
-}
+import { sig } from './number-format';
 
 /** What the sweep was asked for, for the report header. */
 export interface SweepDescription {

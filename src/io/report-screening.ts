@@ -4,18 +4,11 @@
  */
 import type { ScreeningResult } from '../modal/screening';
 import { ENGINEERING_CAUTION } from './caution';
+import { sig } from './number-format';
 
 /** Note printed under every screening report. */
 export const SCREENING_NOTE =
   'Screening compares frequencies with excitation bands; whether a structure is comfortable or safe is decided by the local codes and a licensed engineer, usually with a response calculation.';
-
-function sig(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return v > 0 ? 'inf' : '-';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  return v.toFixed(Math.max(0, digits - 1 - Math.floor(Math.log10(a))));
-}
 
 function table(head: string[], units: string[], rows: string[][], left: number[] = []): string[] {
   const widths = head.map((h, c) => Math.max(h.length, units[c].length, ...rows.map((r) => r[c].length)));

@@ -4,19 +4,11 @@
 import type { EigenResult } from '../eigen/types';
 import type { Direction, ModalAnalysis } from '../modal/analysis-types';
 import { ENGINEERING_CAUTION } from './caution';
+import { sig } from './number-format';
 
 const TRANSLATIONS: readonly Direction[] = ['ux', 'uy', 'uz'];
 
-/** Formats a number to `digits` significant figures without exponent for ordinary magnitudes. */
-function sig(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return v > 0 ? 'inf' : '-';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(a)));
-  return v.toFixed(decimals);
-}
-
+/** A share (0..1) as a percentage with one decimal, "-" when absent. */
 function pct(v: number | undefined): string {
   return v === undefined ? '-' : (100 * v).toFixed(1);
 }

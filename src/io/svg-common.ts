@@ -3,6 +3,7 @@
  * the palette. Plain strings, no DOM and no Node imports, so the drawings work anywhere.
  */
 import { ArgumentError } from '../errors';
+import { significant } from './number-format';
 
 /** Escapes text for XML character data and attribute values (the five predefined entities). */
 export function escapeXml(s: string): string {
@@ -17,12 +18,7 @@ export function px(v: number): string {
 
 /** A number to `digits` significant figures for labels (no exponent for ordinary magnitudes). */
 export function label(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return v > 0 ? '∞' : '–';
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(a)));
-  return v.toFixed(decimals);
+  return Number.isFinite(v) ? significant(v, digits) : v > 0 ? '∞' : '–';
 }
 
 /** Colours of the translational directions, and the neutral greys, in every drawing. */

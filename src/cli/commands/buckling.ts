@@ -11,6 +11,10 @@ import type { NodalLoad } from '../../model/loads';
 import { bucklingAnalysis, type BucklingResult } from '../../modal/buckling';
 import { loadErrorAsOption, parseNodalLoads } from '../loads';
 import { ENGINEERING_CAUTION } from '../../io/caution';
+import { significant } from '../../io/number-format';
+
+/** `digits` significant figures; ±∞ and NaN as JavaScript writes them. */
+const sig = (v: number, digits = 5): string => (Number.isFinite(v) ? significant(v, digits) : String(v));
 
 export const BUCKLING_SPEC: CommandSpec = {
   name: 'buckling',
@@ -45,14 +49,6 @@ export function runBucklingAnalysis(modelText: string, source: string, loadText:
   } catch (e) {
     throw loadErrorAsOption(e, 'loads', option, loads);
   }
-}
-
-function sig(v: number, digits = 5): string {
-  if (!Number.isFinite(v)) return String(v);
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  return v.toFixed(Math.max(0, digits - 1 - Math.floor(Math.log10(a))));
 }
 
 /** Plain-text report of a buckling result. */

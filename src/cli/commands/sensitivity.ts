@@ -13,6 +13,10 @@ import { assemble } from '../../model/assemble';
 import { eigenvalueSensitivity, groupSensitivity, rankMembers, type ElementSensitivity, type GroupSensitivity, type MemberGroup, type RankBy } from '../../modal/sensitivity';
 import { stiffnessScaleFor, whatIf, type StiffnessTargetResult, type WhatIfResult } from '../../modal/whatif';
 import { ENGINEERING_CAUTION } from '../../io/caution';
+import { significant } from '../../io/number-format';
+
+/** `digits` significant figures; NaN as '-', ±∞ as JavaScript writes them. */
+const sig = (v: number, digits = 4): string => (Number.isNaN(v) ? '-' : Number.isFinite(v) ? significant(v, digits) : String(v));
 
 export const SENSITIVITY_SPEC: CommandSpec = {
   name: 'sensitivity',
@@ -47,15 +51,6 @@ export const SENSITIVITY_SPEC: CommandSpec = {
 };
 
 const RANKS: readonly RankBy[] = ['stiffness', 'efficiency', 'mass'];
-
-function sig(v: number, digits = 4): string {
-  if (Number.isNaN(v)) return '-';
-  if (!Number.isFinite(v)) return String(v);
-  if (v === 0) return '0';
-  const a = Math.abs(v);
-  if (a >= 1e6 || a < 1e-3) return v.toExponential(digits - 1);
-  return v.toFixed(Math.max(0, digits - 1 - Math.floor(Math.log10(a))));
-}
 
 function table(head: string[], rows: string[][], leftCols = 0): string[] {
   const w = head.map((h, c) => Math.max(h.length, ...rows.map((r) => r[c].length)));
