@@ -8,7 +8,7 @@
  * With y orthonormal, x = L⁻ᵀ y is M-orthonormal: xᵀ M x = yᵀ L⁻¹ L Lᵀ L⁻ᵀ y = yᵀ y.
  */
 import { FactorizationError } from '../../errors';
-import { symmetricEigen } from './symmetric';
+import { symmetricEigen, transposeInPlace } from './symmetric';
 
 /**
  * Pivot threshold of the Cholesky factorization of M: a pivot ≤ tol · max M_ii means M is not
@@ -72,16 +72,6 @@ function forwardSolveRows(n: number, l: Float64Array, x: Float64Array): void {
     }
     const inv = 1 / l[ri + i];
     for (let b = 0; b < n; b++) x[ri + b] *= inv;
-  }
-}
-
-function transposeInPlace(n: number, a: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < i; j++) {
-      const t = a[i * n + j];
-      a[i * n + j] = a[j * n + i];
-      a[j * n + i] = t;
-    }
   }
 }
 

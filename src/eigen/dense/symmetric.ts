@@ -124,8 +124,8 @@ function tred2(n: number, e: Float64Array, d: Float64Array, v: Float64Array): vo
   e[0] = 0;
 }
 
-// ---- Implicit QL on the tridiagonal matrix (tql2) -------------------------------------------
-function transposeInPlace(n: number, a: Float64Array): void {
+/** A ← Aᵀ for a row-major n × n array. */
+export function transposeInPlace(n: number, a: Float64Array): void {
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < i; j++) {
       const t = a[i * n + j];
@@ -134,6 +134,8 @@ function transposeInPlace(n: number, a: Float64Array): void {
     }
   }
 }
+
+// ---- Implicit QL on the tridiagonal matrix (tql2) -------------------------------------------
 
 /** tql2 on V stored as itself: v[k·n + i] = V(k, i), eigenvector i is column i. */
 function tql2(n: number, e: Float64Array, d: Float64Array, v: Float64Array): void {
