@@ -1,5 +1,4 @@
-import { ArgumentError } from '../../errors';
-import type { SymmetricCsc } from '../sparse/symmetric';
+import { checkPattern, type SymmetricCsc } from '../sparse/symmetric';
 
 /**
  * An undirected graph in compressed adjacency form (the "xadj/adjncy" layout of
@@ -24,26 +23,11 @@ export interface Graph {
  */
 export function adjacency(pattern: SymmetricCsc): Graph {
   const { n, colPtr, rowIdx } = pattern;
-  if (!Number.isInteger(n) || n < 0) throw new ArgumentError(`dimension ${n} is not a non-negative integer; pass the matrix size`, 'pattern.n');
-  if (colPtr.length !== n + 1 || colPtr[0] !== 0) {
-    throw new ArgumentError(`colPtr has length ${colPtr.length} and starts at ${colPtr[0]}; it must have length n + 1 = ${n + 1} and start at 0`, 'pattern.colPtr');
-  }
-  if (colPtr[n] > rowIdx.length) {
-    throw new ArgumentError(`colPtr[n] = ${colPtr[n]} exceeds rowIdx.length = ${rowIdx.length}; pass matching arrays`, 'pattern.colPtr');
-  }
+  checkPattern(pattern);
   const deg = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) {
-    const p0 = colPtr[j];
-    const p1 = colPtr[j + 1];
-    if (p1 < p0) throw new ArgumentError(`colPtr decreases at column ${j} (${p0} then ${p1}); column pointers must be non-decreasing`, `pattern.colPtr[${j + 1}]`);
-    let prev = -1;
-    for (let p = p0; p < p1; p++) {
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const i = rowIdx[p];
-      if (!(i >= j && i < n)) {
-        throw new ArgumentError(`row ${i} in column ${j} is outside the lower triangle ${j}..${n - 1}; store each symmetric entry once with row ≥ column`, `pattern.rowIdx[${p}]`);
-      }
-      if (i <= prev) throw new ArgumentError(`row ${i} in column ${j} follows row ${prev}; rows within a column must be strictly increasing (sum duplicates first)`, `pattern.rowIdx[${p}]`);
-      prev = i;
       if (i !== j) {
         deg[i]++;
         deg[j]++;

@@ -177,6 +177,34 @@ export function toDenseArray(a: SymmetricCsc): Float64Array {
   return d;
 }
 
+/**
+ * Checks that `pattern` is a well-formed lower-stored SymmetricCsc (colPtr of length n + 1 from 0,
+ * non-decreasing; rows of each column in j..n−1, strictly ascending). Values are not looked at.
+ * @throws ArgumentError (path `pattern.n`, `pattern.colPtr`, `pattern.colPtr[j]`, `pattern.rowIdx[p]`)
+ */
+export function checkPattern(pattern: SymmetricCsc): void {
+  const { n, colPtr, rowIdx } = pattern;
+  if (!Number.isInteger(n) || n < 0) throw new ArgumentError(`dimension ${n} is not a non-negative integer; pass the matrix size`, 'pattern.n');
+  if (colPtr.length !== n + 1) throw new ArgumentError(`colPtr has length ${colPtr.length}, expected n + 1 = ${n + 1}; build the matrix with CooBuilder.toCsc`, 'pattern.colPtr');
+  if (colPtr[0] !== 0 || colPtr[n] > rowIdx.length) throw new ArgumentError(`colPtr runs from ${colPtr[0]} to ${colPtr[n]} but rowIdx has ${rowIdx.length} entries; colPtr must start at 0 and end at nnz`, 'pattern.colPtr');
+  for (let j = 0; j < n; j++) {
+    const a = colPtr[j];
+    const b = colPtr[j + 1];
+    if (b < a) throw new ArgumentError(`colPtr decreases at column ${j} (${a} then ${b}); column pointers must be non-decreasing`, `pattern.colPtr[${j + 1}]`);
+    let last = j - 1;
+    for (let p = a; p < b; p++) {
+      const i = rowIdx[p];
+      if (!(i > last) || i >= n) {
+        throw new ArgumentError(
+          `row index ${i} in column ${j} is ${i >= n ? `outside 0..${n - 1}` : i < j ? 'above the diagonal (only the lower triangle is stored)' : 'out of ascending order or repeated'}; store rows j..n−1 of each column ascending, once each`,
+          `pattern.rowIdx[${p}]`,
+        );
+      }
+      last = i;
+    }
+  }
+}
+
 /** Relative asymmetry |a_ij − a_ji| / max|a| that {@link fromDenseArray} tolerates (round-off). */
 export const DENSE_SYMMETRY_TOLERANCE = 1e-12;
 
