@@ -101,8 +101,9 @@ function writeCsc(path: string, a: SymmetricCsc): void {
 /** Reads what writeCsc wrote; the arrays view the file's buffer (no copy). */
 function readCsc(path: string): SymmetricCsc {
   const file = readFileSync(path);
-  // A fresh buffer of its own: offset 0, so the views below are aligned.
-  const buf = file.byteOffset % 8 === 0 ? file : Buffer.from(file);
+  // The views below need an 8-byte-aligned start; a file read into a shared pool slice may not
+  // have one, so copy it into an ArrayBuffer of its own (offset 0).
+  const buf = file.byteOffset % 8 === 0 ? file : Buffer.from(new Uint8Array(file).buffer);
   const n = buf.readInt32LE(0);
   const nz = buf.readInt32LE(4);
   const ints = 2 + n + 1 + nz;
