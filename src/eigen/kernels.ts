@@ -21,6 +21,20 @@ export function dot(x: Float64Array, y: Float64Array, n: number): number {
 }
 
 /**
+ * y ← y + a·x over the first n entries.
+ */
+export function axpy(y: Float64Array, x: Float64Array, a: number, n: number): void {
+  for (let i = 0; i < n; i++) y[i] += a * x[i];
+}
+
+/**
+ * y ← a·x over the first n entries (y may be x).
+ */
+export function scaleInto(y: Float64Array, x: Float64Array, a: number, n: number): void {
+  for (let i = 0; i < n; i++) y[i] = a * x[i];
+}
+
+/**
  * h[c − c0] ← V[:, c]ᵀ w for c in [c0, c1).
  * @param v - basis, column-major n × (≥ c1)
  * @param n - rows

@@ -35,7 +35,7 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { Operator } from '../linalg/operator';
 import { AbortedError, ArgumentError } from '../errors';
-import { combineColumnsInPlace, dot, dotColumns, SeededRandom, subtractColumns } from './kernels';
+import { axpy, combineColumnsInPlace, dot, dotColumns, scaleInto, SeededRandom, subtractColumns } from './kernels';
 
 /** Progress report: phase name and fraction done in [0, 1]. */
 export type ProgressCallback = (phase: string, fraction: number) => void;
@@ -194,18 +194,14 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       inverse.apply(v, w);
       steps++;
       mass.apply(w, z);
-      let before = 0;
-      for (let i = 0; i < n; i++) before += w[i] * z[i];
+      const before = dot(w, z, n);
       reorthogonalize(c);
       mass.apply(w, z);
-      let after = 0;
-      for (let i = 0; i < n; i++) after += w[i] * z[i];
+      const after = dot(w, z, n);
       if (before > 0 && after > 1e-20 * before) {
         const inv = 1 / Math.sqrt(after);
-        for (let i = 0; i < n; i++) {
-          v[i] = w[i] * inv;
-          z[i] *= inv;
-        }
+        scaleInto(v, w, inv, n);
+        scaleInto(z, z, inv, n);
         return true;
       }
     }
@@ -289,9 +285,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       if (j > k) {
         alpha = dot(mvCur, w, n);
         const betaPrev = T[(j - 1) * ncv + j];
-        const vj = vCol[L + j];
-        const vp = vCol[L + j - 1];
-        for (let i = 0; i < n; i++) w[i] -= alpha * vj[i] + betaPrev * vp[i];
+        axpy(w, vCol[L + j], -alpha, n);
+        axpy(w, vCol[L + j - 1], -betaPrev, n);
         removed = alpha * alpha + betaPrev * betaPrev;
       }
       let bb = 0;
@@ -323,10 +318,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
         }
       } else {
         const inv = 1 / beta;
-        for (let i = 0; i < n; i++) {
-          v[i] = w[i] * inv;
-          z[i] *= inv;
-        }
+        scaleInto(v, w, inv, n);
+        scaleInto(z, z, inv, n);
       }
       if (j + 1 < ncv) {
         T[j * ncv + j + 1] = beta;
@@ -370,7 +363,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       // Purify on locking, while the residual vector is at hand (Nour-Omid et al. 1987, §4).
       const g = coupling[c] / thetaSel[c];
       const x = vCol[L + nl + c];
-      if (g !== 0) for (let r = 0; r < n; r++) x[r] += g * vm[r];
+      if (g !== 0) axpy(x, vm, g, n);
       lockedTheta[nl + c] = thetaSel[c];
       lockedEst[nl + c] = Math.abs(coupling[c]) / Math.abs(thetaSel[c]);
     }
@@ -427,8 +420,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       const i = acceptedA[c];
       const g = (betaLast * S[i * ma + ma - 1]) / theta[i];
       if (g === 0) continue;
-      const x = vectors.subarray((nl + c) * n, (nl + c + 1) * n);
-      for (let r = 0; r < n; r++) x[r] += g * vm[r];
+      axpy(vectors.subarray((nl + c) * n, (nl + c + 1) * n), vm, g, n);
     }
   }
   // Ascending λ = σ + 1/θ (ties by position, for determinism); columns are permuted through
@@ -451,10 +443,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     const mx = massVectors.subarray(c * n, (c + 1) * n);
     mass.apply(x, mx);
     const inv = 1 / Math.sqrt(dot(x, mx, n));
-    for (let r = 0; r < n; r++) {
-      x[r] *= inv;
-      mx[r] *= inv;
-    }
+    scaleInto(x, x, inv, n);
+    scaleInto(mx, mx, inv, n);
   }
   return {
     eigenvalues,
