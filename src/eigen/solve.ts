@@ -636,7 +636,9 @@ function solveLowest(run: Run, count: number): Found {
     want = missing;
   }
   if (pool.m < count) throw shortOfModes(run, pool.m, count);
-  return { values: pool.values.slice(0, count), vectors: pool.x.slice(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+  // A view, not a copy: the pool's buffer is the iteration's, free now, and a copy would add
+  // count · n values to the solve's peak memory.
+  return { values: pool.values.slice(0, count), vectors: pool.x.subarray(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
 }
 
 /** The `count` modes nearest a target. */
@@ -668,7 +670,7 @@ function solveNear(run: Run, target: number, count: number): Found {
   }
   if (pool.m < count) throw shortOfModes(run, pool.m, count);
   const n = pencil.n;
-  return { values: pool.values.slice(first, first + count), vectors: pool.x.slice(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+  return { values: pool.values.slice(first, first + count), vectors: pool.x.subarray(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
 }
 
 /** Sturm counts at both ends of a range, as a SturmCheck of `found` modes. */
