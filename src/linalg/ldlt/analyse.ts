@@ -1,5 +1,5 @@
 import { ArgumentError } from '../../errors';
-import { nodeBlocks, orderWith, type NodeBlocks } from '../ordering';
+import { Scratch, amdScratchLength, enoughFlops, float64Entries, nodeBlocks, orderWith, type BlockElimination, type NodeBlocks } from '../ordering';
 import { checkPattern, type SymmetricCsc } from '../sparse/symmetric';
 import type { AnalyseOptions, OrderingName, SymbolicFactor } from './types';
 
@@ -12,23 +12,10 @@ export const ANALYSE_DEFAULTS = { ordering: 'auto' } as const;
  */
 export const AUTO_CANDIDATES = ['amd', 'nd', 'rcm', 'natural'] as const;
 
-/**
- * `auto` stops trying candidates once the best factorization so far costs fewer flops than
- * AUTO_ENOUGH_FLOPS_PER_ENTRY per stored entry of the pattern, on patterns of at least
- * AUTO_ENOUGH_MIN_N columns: another ordering would take longer to compute than any
- * factorization it could save. Measured (Node 20, one core): amd orders a pattern at
- * ≈ 0.4 µs per stored entry and nd at ≈ 1 µs, while the factorization runs at ≈ 3 GFLOP/s, i.e.
- * ≈ 1,200 flops per µs; on an 84,000-DOF truss footbridge (amd: 1e7 flops, 0.07 s to factor)
- * the other three orderings took 1.0–1.8 s. Deterministic: it depends on counts, not on time.
- */
-export const AUTO_ENOUGH_FLOPS_PER_ENTRY = 1000;
-/**
- * See {@link AUTO_ENOUGH_FLOPS_PER_ENTRY}; patterns of fewer columns always try every candidate
- * (the four orderings together then cost a few milliseconds). Measured (Node 20, one core) on a
- * 1,500-DOF plane frame: amd alone 4 ms warm, all four candidates 20–50 ms warm and ≈ 100 ms in
- * a fresh process, for a factor of 7e5 flops, far below the threshold.
- */
-export const AUTO_ENOUGH_MIN_N = 1000;
+// `auto` stops trying candidates once the best factorization so far costs fewer flops than
+// AUTO_ENOUGH_FLOPS_PER_ENTRY per stored entry of the pattern, on patterns of at least
+// AUTO_ENOUGH_MIN_N columns (the rule and its measurements are in ordering/enough.ts).
+export { AUTO_ENOUGH_FLOPS_PER_ENTRY, AUTO_ENOUGH_MIN_N } from '../ordering';
 
 /**
  * Relaxed supernode amalgamation (Ashcraft & Grimes 1989, "The influence of relaxed supernode
@@ -108,51 +95,51 @@ function checkPermutation(perm: Int32Array, n: number): void {
 }
 
 /**
- * The permuted matrix C = P A Pᵀ in two forms: upper triangle by columns (uPtr/uIdx, rows ≤
- * column, unsorted) and lower triangle by columns (lPtr/lIdx, rows ≥ column, ascending), with
- * lOrig[q] = position in the input of the q-th lower entry. Two counting passes, as in a
- * transpose (Davis 2006 §2.5).
+ * The pattern of C = P A Pᵀ in two forms, for the elimination tree and the column counts: upper
+ * triangle by columns (uPtr/uIdx, rows ≤ column) and lower triangle by columns (lPtr/lIdx, rows
+ * ≥ column), rows in no particular order (neither use needs them sorted). One counting pass and
+ * one scatter, as in a transpose (Davis 2006 §2.5).
  */
-function permuteLower(pattern: SymmetricCsc, pinv: Int32Array) {
+function permuteBoth(pattern: SymmetricCsc, pinv: Int32Array) {
   const { n, colPtr, rowIdx } = pattern;
   const nz = colPtr[n];
   const uPtr = new Int32Array(n + 1);
-  for (let j = 0; j < n; j++) {
-    const pj = pinv[j];
-    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
-      const pi = pinv[rowIdx[p]];
-      uPtr[(pi > pj ? pi : pj) + 1]++;
-    }
-  }
-  for (let k = 0; k < n; k++) uPtr[k + 1] += uPtr[k];
-  const uIdx = new Int32Array(nz);
-  const uOrig = new Int32Array(nz);
-  const next = uPtr.slice(0, n);
   const lPtr = new Int32Array(n + 1);
   for (let j = 0; j < n; j++) {
     const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const pi = pinv[rowIdx[p]];
-      const hi = pi > pj ? pi : pj;
-      const lo = pi > pj ? pj : pi;
-      const q = next[hi]++;
-      uIdx[q] = lo;
-      uOrig[q] = p;
-      lPtr[lo + 1]++;
+      if (pi > pj) {
+        uPtr[pi + 1]++;
+        lPtr[pj + 1]++;
+      } else {
+        uPtr[pj + 1]++;
+        lPtr[pi + 1]++;
+      }
     }
   }
-  for (let k = 0; k < n; k++) lPtr[k + 1] += lPtr[k];
-  const lIdx = new Int32Array(nz);
-  const lOrig = new Int32Array(nz);
-  next.set(lPtr.subarray(0, n));
   for (let k = 0; k < n; k++) {
-    for (let q = uPtr[k]; q < uPtr[k + 1]; q++) {
-      const w = next[uIdx[q]]++;
-      lIdx[w] = k;
-      lOrig[w] = uOrig[q];
+    uPtr[k + 1] += uPtr[k];
+    lPtr[k + 1] += lPtr[k];
+  }
+  const uIdx = new Int32Array(nz);
+  const lIdx = new Int32Array(nz);
+  const uNext = uPtr.slice(0, n);
+  const lNext = lPtr.slice(0, n);
+  for (let j = 0; j < n; j++) {
+    const pj = pinv[j];
+    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+      const pi = pinv[rowIdx[p]];
+      if (pi > pj) {
+        uIdx[uNext[pi]++] = pj;
+        lIdx[lNext[pj]++] = pi;
+      } else {
+        uIdx[uNext[pj]++] = pi;
+        lIdx[lNext[pi]++] = pj;
+      }
     }
   }
-  return { uPtr, uIdx, lPtr, lIdx, lOrig };
+  return { uPtr, uIdx, lPtr, lIdx };
 }
 
 /**
@@ -161,10 +148,25 @@ function permuteLower(pattern: SymmetricCsc, pinv: Int32Array) {
  * scatter, for uses that need neither the upper form nor sorted rows (row structures and value
  * positions of the supernodes).
  */
-function permuteLowerUnsorted(pattern: SymmetricCsc, pinv: Int32Array) {
-  const { n, colPtr, rowIdx } = pattern;
+function permuteLowerUnsorted(pattern: SymmetricCsc, pinv: Int32Array, scratch: Scratch) {
+  const { n, colPtr } = pattern;
   const nz = colPtr[n];
-  const lPtr = new Int32Array(n + 1);
+  const lPtr = scratch.zeros(n + 1);
+  countLower(pattern, pinv, lPtr);
+  for (let k = 0; k < n; k++) lPtr[k + 1] += lPtr[k];
+  const lIdx = scratch.take(nz);
+  const lOrig = scratch.take(nz);
+  const m = scratch.mark();
+  const next = scratch.take(n);
+  next.set(lPtr.subarray(0, n));
+  scatterLower(pattern, pinv, next, lIdx, lOrig);
+  scratch.release(m);
+  return { lPtr, lIdx, lOrig };
+}
+
+/** lPtr[k + 1] = entries of column k of the lower triangle of P A Pᵀ; lPtr is 0 on entry. */
+function countLower(pattern: SymmetricCsc, pinv: Int32Array, lPtr: Int32Array): void {
+  const { n, colPtr, rowIdx } = pattern;
   for (let j = 0; j < n; j++) {
     const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
@@ -172,10 +174,11 @@ function permuteLowerUnsorted(pattern: SymmetricCsc, pinv: Int32Array) {
       lPtr[(pi < pj ? pi : pj) + 1]++;
     }
   }
-  for (let k = 0; k < n; k++) lPtr[k + 1] += lPtr[k];
-  const lIdx = new Int32Array(nz);
-  const lOrig = new Int32Array(nz);
-  const next = lPtr.slice(0, n);
+}
+
+/** The entries counted by countLower, rows and input positions; next[k] = next free slot of column k. */
+function scatterLower(pattern: SymmetricCsc, pinv: Int32Array, next: Int32Array, lIdx: Int32Array, lOrig: Int32Array): void {
+  const { n, colPtr, rowIdx } = pattern;
   for (let j = 0; j < n; j++) {
     const pj = pinv[j];
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
@@ -185,7 +188,6 @@ function permuteLowerUnsorted(pattern: SymmetricCsc, pinv: Int32Array) {
       lOrig[w] = p;
     }
   }
-  return { lPtr, lIdx, lOrig };
 }
 
 /** Elimination tree from the upper triangle by columns (Liu's algorithm; Davis 2006 §4.1 cs_etree). */
@@ -209,18 +211,32 @@ function etree(n: number, uPtr: Int32Array, uIdx: Int32Array): Int32Array {
 }
 
 /** Postorder of a forest (Davis 2006 §4.3 cs_post): post[k] = k-th node in postorder. */
-function postorder(parent: Int32Array): Int32Array {
+function postorder(parent: Int32Array, scratch: Scratch = new Scratch()): Int32Array {
   const n = parent.length;
-  const head = new Int32Array(n).fill(-1);
-  const next = new Int32Array(n);
-  const stack = new Int32Array(n);
-  const post = new Int32Array(n);
-  for (let j = n - 1; j >= 0; j--) {
+  const post = scratch.take(n);
+  const m = scratch.mark();
+  const head = scratch.filled(n, -1);
+  const next = scratch.take(n);
+  const stack = scratch.take(n);
+  childLists(parent, head, next);
+  depthFirst(parent, head, next, stack, post);
+  scratch.release(m);
+  return post;
+}
+
+/** Children of each node, in increasing order: head[p] = first child, next[c] = following sibling. */
+function childLists(parent: Int32Array, head: Int32Array, next: Int32Array): void {
+  for (let j = parent.length - 1; j >= 0; j--) {
     const p = parent[j];
     if (p === -1) continue;
     next[j] = head[p];
     head[p] = j;
   }
+}
+
+/** post[k] = k-th node of the depth-first postorder from each root in turn (cs_tdfs). */
+function depthFirst(parent: Int32Array, head: Int32Array, next: Int32Array, stack: Int32Array, post: Int32Array): void {
+  const n = parent.length;
   let k = 0;
   for (let r = 0; r < n; r++) {
     if (parent[r] !== -1) continue;
@@ -238,7 +254,6 @@ function postorder(parent: Int32Array): Int32Array {
       }
     }
   }
-  return post;
 }
 
 /**
@@ -307,11 +322,65 @@ function eliminationOf(pattern: SymmetricCsc, perm: Int32Array): Elimination {
   const n = pattern.n;
   const pinv = new Int32Array(n);
   for (let k = 0; k < n; k++) pinv[perm[k]] = k;
-  const c = permuteLower(pattern, pinv);
+  const c = permuteBoth(pattern, pinv);
   const parent = etree(n, c.uPtr, c.uIdx);
   const post = postorder(parent);
   const cc = columnCounts(n, c.lPtr, c.lIdx, parent, post);
   return { perm, parent, post, cc, ...countsToFill(cc) };
+}
+
+/**
+ * The elimination of a named ordering. Minimum degree on the exact compression comes with the
+ * tree and counts of its blocks (NodeBlocks.elimination); they are expanded rather than computed
+ * again over the full pattern.
+ */
+function eliminationNamed(pattern: SymmetricCsc, method: 'amd' | 'nd' | 'rcm' | 'natural', blocks: NodeBlocks | undefined, scratch: Scratch): Elimination {
+  const perm = orderWith(pattern, method, blocks);
+  if (method === 'amd' && blocks?.elimination) return expandElimination(blocks, blocks.elimination, perm, scratch);
+  return eliminationOf(pattern, perm);
+}
+
+/**
+ * Elimination of the expanded order of blocks of indistinguishable unknowns (blockElimination):
+ * the unknowns of a block form a chain of the tree, the last one's parent is the first unknown of
+ * the parent block, and column i of a block of weight w counts lastCount + w − 1 − i. When no
+ * block merges unknowns the block tree and counts are those of the pattern, used as they are.
+ */
+function expandElimination(b: NodeBlocks, be: BlockElimination, perm: Int32Array, scratch: Scratch): Elimination {
+  const n = perm.length;
+  const corder = b.amdOrder;
+  let parent = be.parent;
+  let cc = be.lastCount;
+  if (corder.length !== n) {
+    parent = scratch.take(n);
+    cc = scratch.take(n);
+    const m = scratch.mark();
+    expandBlocks(b.blocks.weight, corder, be, parent, cc, scratch.take(corder.length + 1));
+    scratch.release(m);
+  }
+  return { perm, parent, post: postorder(parent, scratch), cc, nnzL: be.nnzL, flops: be.flops };
+}
+
+/**
+ * Writes the tree and column counts of the unknowns of each block (see expandElimination).
+ * @param first - workspace of length corder.length + 1
+ */
+function expandBlocks(weight: Int32Array, corder: Int32Array, be: BlockElimination, parent: Int32Array, cc: Int32Array, first: Int32Array): void {
+  const nb = corder.length;
+  first[0] = 0; // then first[k] = first position of block k in the expanded order
+  for (let k = 0; k < nb; k++) first[k + 1] = first[k] + weight[corder[k]];
+  const { parent: bparent, lastCount } = be;
+  for (let k = 0; k < nb; k++) {
+    const l = first[k + 1] - 1;
+    const c = lastCount[k];
+    for (let j = first[k]; j < l; j++) {
+      parent[j] = j + 1;
+      cc[j] = c + l - j;
+    }
+    const bp = bparent[k];
+    parent[l] = bp === -1 ? -1 : first[bp];
+    cc[l] = c;
+  }
 }
 
 /** nnz(L) below the diagonal and flops Σ c(c + 2), c = off-diagonal count (c divisions, c(c+1)/2 multiply-adds ×2). */
@@ -362,105 +431,223 @@ export function analyse(pattern: SymmetricCsc, options: SupernodalAnalyseOptions
   checkPattern(pattern);
   const n = pattern.n;
 
-  // --- Ordering ------------------------------------------------------------------------
-  let chosen: Elimination;
-  let name: string;
-  let candidates: OrderingCandidate[] | undefined;
+  // --- Ordering, then renumbering by its etree postorder so that every subtree is contiguous;
+  // the tree and the column counts are relabelled, not recomputed (Davis 2006, §4.3). ---------
+  // Temporaries are carved from one scratch buffer (see scratchLength); parent and cc of the
+  // renumbered tree sit at its bottom until the end.
+  const diagPos = diagonalPositions(pattern);
+  const scratch = Scratch.ofLength(scratchLength(pattern, diagPos, ordering));
+  const parent = scratch.take(n);
+  const cc = scratch.take(n);
+  const m = scratch.mark();
+  const choice = chooseOrdering(pattern, ordering, scratch);
+  const { name, candidates } = choice;
+  const { nnzL, flops } = choice.chosen!;
+  const { perm, pinv } = renumber(choice.chosen!, parent, cc, scratch);
+  choice.chosen = undefined; // its arrays are garbage from here on
+  scratch.release(m);
+
+  // --- Supernodes: fundamental ones, then relaxed amalgamation, then their sizes. ----------
+  const superStart = relaxedStarts(fundamentalStarts(parent, cc, scratch), parent, cc, maxColumns, maxZeros, scratch);
+  scratch.release(m);
+  const ns = superStart.length - 1;
+  const superOf = new Int32Array(n);
+  const rowPtr = new Int32Array(ns + 1);
+  const lxPtr = new Float64Array(ns + 1);
+  const max = supernodeSizes(superStart, cc, superOf, rowPtr, lxPtr);
+  if (lxPtr[ns] > 0x7fffffff) {
+    throw new ArgumentError(`the factor would hold ${lxPtr[ns]} entries, more than 2³¹ − 1; use a fill-reducing ordering ('nd' or 'amd') or a smaller model`, 'pattern');
+  }
+
+  // --- Row structures and where each input value lands in the factor's blocks. -------------
+  const c = permuteLowerUnsorted(pattern, pinv, scratch);
+  const mark = scratch.take(n); // workspace of both passes
+  const rows = rowStructures(superStart, superOf, parent, rowPtr, c.lPtr, c.lIdx, mark, scratch);
+  const lxPos = valuePositions(superStart, rowPtr, rows, lxPtr, c.lPtr, c.lIdx, c.lOrig, mark);
+
+  const sym: SupernodalSymbolic = {
+    n,
+    perm,
+    ordering: name,
+    nnzL,
+    flops,
+    supernodes: ns,
+    patternNnz: pattern.colPtr[n],
+    kind: 'supernodal',
+    pinv,
+    superStart,
+    superOf,
+    rowPtr,
+    rows,
+    lxPtr,
+    lxPos,
+    diagPos,
+    maxCols: max.cols,
+    maxRows: max.rows,
+    maxBlock: max.block,
+    ...(candidates ? { candidates } : {}),
+  };
+  return sym;
+}
+
+/**
+ * Int32 entries of analyse's scratch: the renumbered tree and counts (2n) under the largest of
+ * (a) minimum degree and its node grouping (amdScratchLength with every off-diagonal entry, as
+ * when no unknowns merge, which bounds every grouping), (b) the expanded elimination (6n), and
+ * (c) the later phases: the permuted lower triangle with its input positions (2 nz + n + 1) and
+ * a mark (n) beside the supernode child lists (≤ 2n), or the relaxation's prefix sums and flags
+ * (float64Entries(n + 1) + n + 1 + 2n).
+ */
+function scratchLength(pattern: SymmetricCsc, diagPos: Int32Array, ordering: OrderingName | Int32Array): number {
+  const n = pattern.n;
+  const nz = pattern.colPtr[n];
+  let diagonal = 0;
+  for (let j = 0; j < n; j++) if (diagPos[j] !== -1) diagonal++;
+  const minimumDegree = ordering === 'auto' || ordering === 'amd' ? amdScratchLength(n, 2 * (nz - diagonal), n) : 0;
+  const later = Math.max(2 * nz + 4 * n + 1, float64Entries(n + 1) + 3 * n + 1);
+  return 2 * n + Math.max(minimumDegree, 6 * n, later);
+}
+
+/** The ordering chosen by `analyse`, with its elimination (cleared once relabelled). */
+interface OrderingChoice {
+  chosen: Elimination | undefined;
+  readonly name: string;
+  readonly candidates: OrderingCandidate[] | undefined;
+}
+
+/**
+ * The elimination of the requested ordering; with 'auto', of the candidate with the fewest flops
+ * (AUTO_CANDIDATES, until one is good enough: enoughFlops).
+ */
+function chooseOrdering(pattern: SymmetricCsc, ordering: OrderingName | Int32Array, scratch: Scratch): OrderingChoice {
+  const n = pattern.n;
   if (ordering instanceof Int32Array) {
     checkPermutation(ordering, n);
-    chosen = eliminationOf(pattern, ordering.slice());
-    name = 'given';
-  } else if (ordering === 'auto') {
+    return { chosen: eliminationOf(pattern, ordering.slice()), name: 'given', candidates: undefined };
+  }
+  if (ordering === 'auto') {
     // Choose by measured fill, not by habit: etree + column counts of each candidate. The node
     // grouping that amd and nd share is computed once.
-    candidates = [];
+    const candidates: OrderingCandidate[] = [];
     let best: Elimination | undefined;
-    name = 'natural';
+    let name = 'natural';
     let blocks: NodeBlocks | undefined;
-    const enough = n >= AUTO_ENOUGH_MIN_N ? AUTO_ENOUGH_FLOPS_PER_ENTRY * pattern.colPtr[n] : -1;
+    const enough = enoughFlops(pattern);
     for (const cand of AUTO_CANDIDATES) {
       if (best && best.flops < enough) break;
-      if ((cand === 'amd' || cand === 'nd') && !blocks) blocks = nodeBlocks(pattern);
-      const e = eliminationOf(pattern, orderWith(pattern, cand, blocks));
+      if ((cand === 'amd' || cand === 'nd') && !blocks) blocks = nodeBlocks(pattern, scratch);
+      const e = eliminationNamed(pattern, cand, blocks, scratch);
       candidates.push({ ordering: cand, nnzL: e.nnzL, flops: e.flops });
       if (!best || e.flops < best.flops) {
         best = e;
         name = cand;
       }
     }
-    chosen = best!;
-  } else if (ordering === 'amd' || ordering === 'nd' || ordering === 'rcm' || ordering === 'natural') {
-    chosen = eliminationOf(pattern, orderWith(pattern, ordering));
-    name = ordering;
-  } else {
-    throw new ArgumentError(`unknown ordering "${String(ordering)}"; use 'auto', 'amd', 'nd', 'rcm', 'natural' or an Int32Array permutation`, 'options.ordering');
+    return { chosen: best!, name, candidates };
   }
+  if (ordering === 'amd' || ordering === 'nd' || ordering === 'rcm' || ordering === 'natural') {
+    return { chosen: eliminationNamed(pattern, ordering, ordering === 'amd' ? nodeBlocks(pattern, scratch) : undefined, scratch), name: ordering, candidates: undefined };
+  }
+  throw new ArgumentError(`unknown ordering "${String(ordering)}"; use 'auto', 'amd', 'nd', 'rcm', 'natural' or an Int32Array permutation`, 'options.ordering');
+}
 
-  // --- Renumber by the etree postorder so that every subtree is contiguous; the tree and the
-  // column counts are relabelled, not recomputed (Davis 2006, §4.3). -----------------------
-  const { post } = chosen;
-  const ipost = new Int32Array(n);
+/**
+ * perm and its inverse for an elimination renumbered by its postorder; its tree and column
+ * counts, relabelled, are written to parent and cc.
+ */
+function renumber(e: Elimination, parent: Int32Array, cc: Int32Array, scratch: Scratch): { perm: Int32Array; pinv: Int32Array } {
+  const { post } = e;
+  const n = post.length;
+  const m = scratch.mark();
+  const ipost = scratch.take(n);
   for (let k = 0; k < n; k++) ipost[post[k]] = k;
   const perm = new Int32Array(n);
-  const parent = new Int32Array(n);
-  const cc = new Int32Array(n);
+  const pinv = new Int32Array(n);
   for (let k = 0; k < n; k++) {
     const j = post[k];
-    perm[k] = chosen.perm[j];
-    const pj = chosen.parent[j];
+    const v = e.perm[j];
+    perm[k] = v;
+    pinv[v] = k;
+    const pj = e.parent[j];
     parent[k] = pj === -1 ? -1 : ipost[pj];
-    cc[k] = chosen.cc[j];
+    cc[k] = e.cc[j];
   }
-  const pinv = ipost; // reuse
-  for (let k = 0; k < n; k++) pinv[perm[k]] = k;
-  const c = permuteLowerUnsorted(pattern, pinv);
-  const { nnzL, flops } = chosen;
+  scratch.release(m);
+  return { perm, pinv };
+}
 
-  // --- Fundamental supernodes (Liu, Ng & Peyton 1993): j joins j−1 when j is j−1's parent,
-  // j−1 is its only child, and the column structures nest exactly. -------------------------
-  const childCount = new Int32Array(n);
+/**
+ * Fundamental supernodes (Liu, Ng & Peyton 1993) of a postordered tree: j joins j−1 when j is
+ * j−1's parent, j−1 is its only child, and the column structures nest exactly.
+ * @returns the first column of each, then n
+ */
+function fundamentalStarts(parent: Int32Array, cc: Int32Array, scratch: Scratch): Int32Array {
+  const n = parent.length;
+  const childCount = scratch.zeros(n + 1);
   for (let j = 0; j < n; j++) if (parent[j] !== -1) childCount[parent[j]]++;
-  const fStartList: number[] = [];
+  // Written in place behind the reads: starts[m] is written after childCount[j] is read, j ≥ m.
+  const starts = childCount;
+  let m = 0;
   for (let j = 0; j < n; j++) {
-    if (j === 0 || !(parent[j - 1] === j && cc[j - 1] === cc[j] + 1 && childCount[j] === 1)) fStartList.push(j);
+    if (j === 0 || !(parent[j - 1] === j && cc[j - 1] === cc[j] + 1 && childCount[j] === 1)) starts[m++] = j;
   }
-  const nfs = fStartList.length;
-  fStartList.push(n);
+  starts[m] = n;
+  return starts.subarray(0, m + 1);
+}
 
-  // --- Relaxed amalgamation (Ashcraft & Grimes 1989; RELAX_DEFAULTS), top-down as CHOLMOD does: merge
-  // supernode s into the group that starts at s+1 when s+1 holds the parent of s's last column.
-  // Zeros of a merged block [a, b] (a trapezoid whose rows below b are those of column b):
-  // m(m+1)/2 + m(cc[b]−1) − Σ cc[a..b], with m = b − a + 1. ------------------------------------
-  const prefix = new Float64Array(n + 1);
-  for (let j = 0; j < n; j++) prefix[j + 1] = prefix[j] + cc[j];
-  const groupEnd = new Int32Array(nfs);
-  const mergedUp = new Uint8Array(nfs);
+/**
+ * Relaxed amalgamation (Ashcraft & Grimes 1989; RELAX_DEFAULTS), top-down as CHOLMOD does:
+ * supernode s merges into the group that starts at s+1 when s+1 holds the parent of s's last
+ * column. Zeros of a merged block [a, b] (a trapezoid whose rows below b are those of column b):
+ * m(m+1)/2 + m(cc[b]−1) − Σ cc[a..b], with m = b − a + 1.
+ * @param fStart - first column of each fundamental supernode, then n
+ * @returns first column of each supernode, then n
+ */
+function relaxedStarts(fStart: Int32Array, parent: Int32Array, cc: Int32Array, maxColumns: number, maxZeros: number, scratch: Scratch): Int32Array {
+  const n = parent.length;
+  const nfs = fStart.length - 1;
+  const m0 = scratch.mark();
+  const prefix = scratch.float64Zeros(n + 1);
+  let sum = 0;
+  for (let j = 0; j < n; j++) prefix[j + 1] = sum += cc[j];
+  const groupEnd = scratch.take(nfs);
+  const mergedUp = scratch.zeros(nfs);
   if (nfs > 0) groupEnd[nfs - 1] = n - 1;
   for (let s = nfs - 2; s >= 0; s--) {
-    const last = fStartList[s + 1] - 1;
+    const last = fStart[s + 1] - 1;
     groupEnd[s] = last;
     if (parent[last] !== last + 1) continue;
-    const a = fStartList[s];
+    const a = fStart[s];
     const b = groupEnd[s + 1];
     const m = b - a + 1;
+    if (m > maxColumns) continue;
     const total = (m * (m + 1)) / 2 + m * (cc[b] - 1);
     const z = (total - (prefix[b + 1] - prefix[a])) / total;
-    if (m <= maxColumns && z <= maxZeros) {
+    if (z <= maxZeros) {
       mergedUp[s] = 1;
       groupEnd[s] = b;
     }
   }
-  const startList: number[] = [];
-  for (let s = 0; s < nfs; s++) if (s === 0 || !mergedUp[s - 1]) startList.push(fStartList[s]);
-  const ns = startList.length;
-  startList.push(n);
-  const superStart = Int32Array.from(startList);
-  const superOf = new Int32Array(n);
-  const rowPtr = new Int32Array(ns + 1);
-  const lxPtr = new Float64Array(ns + 1);
-  let maxCols = 0;
-  let maxRows = 0;
-  let maxBlock = 0;
+  const starts = groupEnd; // free now
+  let ns = 0;
+  for (let s = 0; s < nfs; s++) if (s === 0 || !mergedUp[s - 1]) starts[ns++] = fStart[s];
+  const superStart = new Int32Array(ns + 1);
+  superStart.set(starts.subarray(0, ns));
+  superStart[ns] = n;
+  scratch.release(m0);
+  return superStart;
+}
+
+/**
+ * Fills superOf (supernode of each column), rowPtr (rows of each supernode: its columns plus
+ * the off-diagonal count of its last one) and lxPtr (offsets of the dense blocks).
+ * @returns the widest, tallest and largest block
+ */
+function supernodeSizes(superStart: Int32Array, cc: Int32Array, superOf: Int32Array, rowPtr: Int32Array, lxPtr: Float64Array): { cols: number; rows: number; block: number } {
+  const ns = superStart.length - 1;
+  let cols = 0;
+  let rows = 0;
+  let block = 0;
   for (let s = 0; s < ns; s++) {
     const f = superStart[s];
     const l = superStart[s + 1] - 1;
@@ -469,20 +656,25 @@ export function analyse(pattern: SymmetricCsc, options: SupernodalAnalyseOptions
     const nr = nc + cc[l] - 1;
     rowPtr[s + 1] = rowPtr[s] + nr;
     lxPtr[s + 1] = lxPtr[s] + nr * nc;
-    if (nc > maxCols) maxCols = nc;
-    if (nr > maxRows) maxRows = nr;
-    if (nr * nc > maxBlock) maxBlock = nr * nc;
+    if (nc > cols) cols = nc;
+    if (nr > rows) rows = nr;
+    if (nr * nc > block) block = nr * nc;
   }
-  if (lxPtr[ns] > 0x7fffffff) {
-    throw new ArgumentError(`the factor would hold ${lxPtr[ns]} entries, more than 2³¹ − 1; use a fill-reducing ordering ('nd' or 'amd') or a smaller model`, 'pattern');
-  }
+  return { cols, rows, block };
+}
 
-  // --- Row structure of each supernode: its own columns, then the union of the entries of C
-  // below its last column l and of its children's rows below l (Davis 2006 §4.4), sorted. ----
+/**
+ * Row structure of each supernode: its own columns, then the union of the entries of C below its
+ * last column l and of its children's rows below l (Davis 2006 §4.4), sorted.
+ * @param mark - workspace of length n
+ */
+function rowStructures(superStart: Int32Array, superOf: Int32Array, parent: Int32Array, rowPtr: Int32Array, lPtr: Int32Array, lIdx: Int32Array, mark: Int32Array, scratch: Scratch): Int32Array {
+  const ns = superStart.length - 1;
   const rows = new Int32Array(rowPtr[ns]);
-  const mark = new Int32Array(n).fill(-1);
-  const childHead = new Int32Array(ns).fill(-1);
-  const childNext = new Int32Array(ns).fill(-1);
+  mark.fill(-1);
+  const m = scratch.mark();
+  const childHead = scratch.filled(ns, -1);
+  const childNext = scratch.filled(ns, -1);
   for (let s = ns - 1; s >= 0; s--) {
     const l = superStart[s + 1] - 1;
     const ps = parent[l] === -1 ? -1 : superOf[parent[l]];
@@ -497,82 +689,88 @@ export function analyse(pattern: SymmetricCsc, options: SupernodalAnalyseOptions
     let w = rowPtr[s];
     for (let j = f; j <= l; j++) rows[w++] = j;
     const below = w;
-    for (let j = f; j <= l; j++) {
-      for (let p = c.lPtr[j]; p < c.lPtr[j + 1]; p++) {
-        const i = c.lIdx[p];
-        if (i > l && mark[i] !== s) {
-          mark[i] = s;
-          rows[w++] = i;
-        }
-      }
-    }
+    w = gatherEntries(s, f, l, lPtr, lIdx, mark, rows, w);
     for (let ch = childHead[s]; ch !== -1; ch = childNext[ch]) {
-      const ncc = superStart[ch + 1] - superStart[ch];
-      for (let p = rowPtr[ch] + ncc; p < rowPtr[ch + 1]; p++) {
-        const i = rows[p];
-        if (i > l && mark[i] !== s) {
-          mark[i] = s;
-          rows[w++] = i;
-        }
-      }
+      w = gatherRows(s, l, rowPtr[ch] + superStart[ch + 1] - superStart[ch], rowPtr[ch + 1], mark, rows, w);
     }
     if (w !== rowPtr[s + 1]) throw new Error(`ldlt analyse: supernode ${s} has ${w - rowPtr[s]} rows, column counts say ${rowPtr[s + 1] - rowPtr[s]}`);
-    // Sort the rows below: insertion sort for the short lists of most supernodes (no view
-    // object per supernode), the typed-array sort for long ones.
-    if (w - below > 32) rows.subarray(below, w).sort();
-    else {
-      for (let p = below + 1; p < w; p++) {
-        const v = rows[p];
-        let q = p - 1;
-        while (q >= below && rows[q] > v) {
-          rows[q + 1] = rows[q];
-          q--;
-        }
-        rows[q + 1] = v;
-      }
+    sortRows(rows, below, w);
+  }
+  scratch.release(m);
+  return rows;
+}
+
+/** Appends to rows (from w) the rows > l of columns f..l of C not yet marked for supernode s; returns the new end. */
+function gatherEntries(s: number, f: number, l: number, lPtr: Int32Array, lIdx: Int32Array, mark: Int32Array, rows: Int32Array, w: number): number {
+  for (let p = lPtr[f]; p < lPtr[l + 1]; p++) {
+    const i = lIdx[p];
+    if (i > l && mark[i] !== s) {
+      mark[i] = s;
+      rows[w++] = i;
     }
   }
+  return w;
+}
 
-  // --- Where each input value lands in the factor's blocks -------------------------------
-  const nz = pattern.colPtr[n];
-  const lxPos = new Int32Array(nz);
-  const rel = mark; // reuse: rel[i] = local row of global row i in the current supernode
+/** Appends to rows (from w) the rows > l of rows[from .. to) not yet marked for supernode s; returns the new end. */
+function gatherRows(s: number, l: number, from: number, to: number, mark: Int32Array, rows: Int32Array, w: number): number {
+  for (let p = from; p < to; p++) {
+    const i = rows[p];
+    if (i > l && mark[i] !== s) {
+      mark[i] = s;
+      rows[w++] = i;
+    }
+  }
+  return w;
+}
+
+/**
+ * Sorts rows[from .. to) ascending: insertion sort for the short lists of most supernodes (no
+ * view object per supernode), the typed-array sort for long ones.
+ */
+function sortRows(rows: Int32Array, from: number, to: number): void {
+  if (to - from > 32) {
+    rows.subarray(from, to).sort();
+    return;
+  }
+  for (let p = from + 1; p < to; p++) {
+    const v = rows[p];
+    let q = p - 1;
+    while (q >= from && rows[q] > v) {
+      rows[q + 1] = rows[q];
+      q--;
+    }
+    rows[q + 1] = v;
+  }
+}
+
+/**
+ * lxPos[p] = where the p-th value of the input pattern goes in the factor's value array.
+ * @param rel - workspace of length n: rel[i] = local row of row i in the current supernode
+ */
+function valuePositions(superStart: Int32Array, rowPtr: Int32Array, rows: Int32Array, lxPtr: Float64Array, lPtr: Int32Array, lIdx: Int32Array, lOrig: Int32Array, rel: Int32Array): Int32Array {
+  const ns = superStart.length - 1;
+  const lxPos = new Int32Array(lOrig.length);
   for (let s = 0; s < ns; s++) {
     const f = superStart[s];
     const nc = superStart[s + 1] - f;
-    for (let p = rowPtr[s]; p < rowPtr[s + 1]; p++) rel[rows[p]] = p - rowPtr[s];
+    const r0 = rowPtr[s];
+    for (let p = r0; p < rowPtr[s + 1]; p++) rel[rows[p]] = p - r0;
     const base = lxPtr[s];
     for (let j = f; j < f + nc; j++) {
-      for (let p = c.lPtr[j]; p < c.lPtr[j + 1]; p++) lxPos[c.lOrig[p]] = base + rel[c.lIdx[p]] * nc + (j - f);
+      for (let p = lPtr[j]; p < lPtr[j + 1]; p++) lxPos[lOrig[p]] = base + rel[lIdx[p]] * nc + (j - f);
     }
   }
+  return lxPos;
+}
+
+/** diagPos[j] = position of A_jj (original numbering) in the input values, −1 if not stored. */
+function diagonalPositions(pattern: SymmetricCsc): Int32Array {
+  const { n, colPtr, rowIdx } = pattern;
   const diagPos = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
-    const p = pattern.colPtr[j];
-    if (p < pattern.colPtr[j + 1] && pattern.rowIdx[p] === j) diagPos[j] = p;
+    const p = colPtr[j];
+    if (p < colPtr[j + 1] && rowIdx[p] === j) diagPos[j] = p;
   }
-
-  const sym: SupernodalSymbolic = {
-    n,
-    perm,
-    ordering: name,
-    nnzL,
-    flops,
-    supernodes: ns,
-    patternNnz: nz,
-    kind: 'supernodal',
-    pinv,
-    superStart,
-    superOf,
-    rowPtr,
-    rows,
-    lxPtr,
-    lxPos,
-    diagPos,
-    maxCols,
-    maxRows,
-    maxBlock,
-    ...(candidates ? { candidates } : {}),
-  };
-  return sym;
+  return diagPos;
 }

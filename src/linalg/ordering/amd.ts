@@ -1,4 +1,5 @@
 import type { Graph } from './graph';
+import { Scratch } from './scratch';
 
 /**
  * Approximate minimum degree ordering of a graph whose vertex v stands for `weight[v]`
@@ -23,11 +24,28 @@ import type { Graph } from './graph';
  *
  * @param weight - optional number of unknowns of each vertex, ≥ 1
  * @param cset - optional constraint set of each vertex, non-negative integers
+ * @param scratch - where the workspace is carved ({@link amdScratchLength} entries), given back
+ *   on return
  * @returns perm of length g.n: perm[k] = vertex eliminated k-th.
  */
-export function amdGraph(g: Graph, weight?: Int32Array, cset?: Int32Array): Int32Array {
+export function amdGraph(g: Graph, weight?: Int32Array, cset?: Int32Array, scratch: Scratch = new Scratch()): Int32Array {
   if (g.n === 0) return new Int32Array(0);
-  const ws = new AmdWork(g, weight, cset);
+  const m = scratch.mark();
+  const order = amdRun(new AmdWork(g, weight, cset, scratch));
+  scratch.release(m);
+  return order;
+}
+
+/**
+ * Int32 entries of the workspace amdGraph takes from its scratch for a graph of n vertices with
+ * `adjacent` entries in its neighbour lists (2 per edge) and total weight N.
+ */
+export function amdScratchLength(n: number, adjacent: number, N: number): number {
+  return adjacent + Math.floor(adjacent / 5) + 2 * n + 1 + 10 * (n + 1) + N + 1;
+}
+
+/** The pivot loop of amdGraph. */
+function amdRun(ws: AmdWork): Int32Array {
   while (ws.nel < ws.N) {
     if (ws.constrained) advanceSet(ws);
     const k = selectPivot(ws);
@@ -63,7 +81,7 @@ class AmdWork {
   readonly degree: Int32Array;
   readonly w: Int32Array;
   readonly hhead: Int32Array;
-  readonly inList: Uint8Array;
+  readonly inList: Int32Array;
   readonly constrained: boolean;
   readonly cset: Int32Array;
   readonly setPtr: Int32Array;
@@ -82,83 +100,134 @@ class AmdWork {
   pk1 = 0;
   pk2 = 0;
 
-  constructor(g: Graph, weight: Int32Array | undefined, cset: Int32Array | undefined) {
+  constructor(g: Graph, weight: Int32Array | undefined, cset: Int32Array | undefined, scratch: Scratch) {
     const n = g.n;
-    const { xadj, adjncy } = g;
     this.n = n;
-    let N = 0;
-    for (let i = 0; i < n; i++) N += weight ? weight[i] : 1;
+    const N = weight ? sum(weight, n) : n;
     this.N = N;
-    const cnz0 = xadj[n];
+    const cnz0 = g.xadj[n];
     this.nzmax = cnz0 + Math.floor(cnz0 / 5) + 2 * n + 1;
-    this.Ci = new Int32Array(this.nzmax);
-    this.Ci.set(adjncy.subarray(0, cnz0));
-    this.Cp = new Int32Array(n + 1);
-    this.Cp.set(xadj.subarray(0, n + 1));
+    // One stretch, carved: the quotient graph, ten vectors over the variables (and the
+    // placeholder n), and the degree lists (degrees run to N). Every part is initialised below
+    // (the elbow room of Ci is written before it is read).
+    const buf = scratch.take(amdScratchLength(n, cnz0, N));
+    let at = 0;
+    const take = (len: number): Int32Array => buf.subarray(at, (at += len));
+    this.Ci = take(this.nzmax);
+    this.Cp = take(n + 1);
+    this.len = take(n + 1);
+    this.nv = take(n + 1);
+    this.next = take(n + 1);
+    this.last = take(n + 1);
+    this.elen = take(n + 1);
+    this.degree = take(n + 1);
+    this.w = take(n + 1);
+    this.hhead = take(n + 1);
+    this.inList = take(n + 1);
+    this.head = take(N + 1);
     this.cnz = cnz0;
-    this.len = new Int32Array(n + 1);
-    this.nv = new Int32Array(n + 1);
-    this.next = new Int32Array(n + 1).fill(-1);
-    this.last = new Int32Array(n + 1).fill(-1);
-    this.head = new Int32Array(N + 1).fill(-1);
-    this.elen = new Int32Array(n + 1);
-    this.degree = new Int32Array(n + 1);
-    this.w = new Int32Array(n + 1).fill(1);
-    this.hhead = new Int32Array(n + 1).fill(-1);
-    this.inList = new Uint8Array(n + 1);
     this.constrained = cset !== undefined;
-    // Constraint sets: members of each set, weight still to be eliminated.
-    let nsets = 0;
-    if (cset) for (let i = 0; i < n; i++) nsets = Math.max(nsets, cset[i] + 1);
     this.cset = cset ?? new Int32Array(0);
+    const nsets = cset ? maxOf(cset) + 1 : 0;
     this.setPtr = new Int32Array(nsets + 1);
     this.setMembers = new Int32Array(cset ? n : 0);
     this.remaining = new Float64Array(nsets);
-    if (cset) {
-      for (let i = 0; i < n; i++) this.setPtr[cset[i] + 1]++;
-      for (let s = 0; s < nsets; s++) this.setPtr[s + 1] += this.setPtr[s];
-      const at = this.setPtr.slice(0, nsets);
-      for (let i = 0; i < n; i++) this.setMembers[at[cset[i]]++] = i;
-    }
+    if (cset) groupSets(cset, this.setPtr, this.setMembers);
+    initGraph(this, g, weight);
+    this.mark = 2; // as cs_wclear(0, 0, w, n) leaves it: every w is 1 here
+    initLists(this, cset);
+  }
+}
 
-    // --- Initialise the quotient graph ------------------------------------------------------
-    const { Cp, len, nv, next, last, head, elen, degree, w, inList } = this;
-    for (let k = 0; k < n; k++) len[k] = Cp[k + 1] - Cp[k];
-    for (let i = 0; i < n; i++) nv[i] = weight ? weight[i] : 1;
-    for (let i = 0; i < n; i++) {
-      let d = 0;
-      for (let p = Cp[i]; p < Cp[i + 1]; p++) d += nv[adjncy[p]];
-      degree[i] = d;
-    }
-    this.mark = wclear(0, 0, w, n);
-    elen[n] = -2;
-    Cp[n] = -1;
-    w[n] = 0;
-    nv[n] = 0;
-    const dense = cset ? N : Math.min(N - 2, Math.max(16, 10 * Math.sqrt(N)));
-    for (let i = 0; i < n; i++) {
-      const d = degree[i];
-      if (len[i] === 0) {
-        // empty row: eliminated at once
-        elen[i] = -2;
-        this.nel += nv[i];
-        Cp[i] = -1;
-        w[i] = 0;
-      } else if (cset) {
-        this.remaining[cset[i]] += nv[i]; // enters the degree lists when its set comes up
-      } else if (d > dense) {
-        // dense row: absorbed into the placeholder element n, ordered last
-        this.nel += nv[i];
-        nv[n] += nv[i];
-        nv[i] = 0;
-        elen[i] = -1;
-        Cp[i] = flip(n);
-      } else {
-        if (head[d] !== -1) last[head[d]] = i;
-        next[i] = head[d];
-        head[d] = i;
-        inList[i] = 1;
-      }
+/** Σ of the first n entries of an array. */
+function sum(a: Int32Array, n: number): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s += a[i];
+  return s;
+}
+
+/** Largest entry of a non-empty array. */
+function maxOf(a: Int32Array): number {
+  let m = 0;
+  for (let i = 0; i < a.length; i++) if (a[i] > m) m = a[i];
+  return m;
+}
+
+/** Members of each constraint set, by a counting sort: set s holds members[ptr[s] .. ptr[s+1]). */
+function groupSets(cset: Int32Array, ptr: Int32Array, members: Int32Array): void {
+  const nsets = ptr.length - 1;
+  for (let i = 0; i < cset.length; i++) ptr[cset[i] + 1]++;
+  for (let s = 0; s < nsets; s++) ptr[s + 1] += ptr[s];
+  const at = ptr.slice(0, nsets);
+  for (let i = 0; i < cset.length; i++) members[at[cset[i]]++] = i;
+}
+
+/** Quotient graph = the graph; weights; degrees; every list empty (cs_amd's initialisation). */
+function initGraph(ws: AmdWork, g: Graph, weight: Int32Array | undefined): void {
+  const { n, Ci, Cp, len, nv, next, last, head, hhead, w, degree } = ws;
+  const { xadj, adjncy } = g;
+  Ci.set(adjncy.subarray(0, xadj[n]));
+  Cp.set(xadj.subarray(0, n + 1));
+  for (let k = 0; k < n; k++) len[k] = Cp[k + 1] - Cp[k];
+  if (weight) nv.set(weight.subarray(0, n));
+  else nv.fill(1, 0, n);
+  len[n] = 0;
+  ws.elen.fill(0);
+  ws.inList.fill(0);
+  degree[n] = 0;
+  next.fill(-1);
+  last.fill(-1);
+  head.fill(-1);
+  hhead.fill(-1);
+  w.fill(1);
+  // Degree = total weight of the neighbours; with unit weights (N = n) that is the list length.
+  if (ws.N === n) degree.set(len.subarray(0, n));
+  else weightedDegrees(n, Cp, adjncy, nv, degree);
+}
+
+/** degree[i] = Σ nv over the neighbours of i. */
+function weightedDegrees(n: number, Cp: Int32Array, adjncy: Int32Array, nv: Int32Array, degree: Int32Array): void {
+  for (let i = 0; i < n; i++) {
+    let d = 0;
+    for (let p = Cp[i]; p < Cp[i + 1]; p++) d += nv[adjncy[p]];
+    degree[i] = d;
+  }
+}
+
+/**
+ * Puts every variable in the degree list of its degree, except empty rows (eliminated at once),
+ * dense rows (absorbed into the placeholder n, ordered last) and, with constraint sets, the
+ * variables whose set has not come up yet.
+ */
+function initLists(ws: AmdWork, cset: Int32Array | undefined): void {
+  const { n, N, Cp, len, nv, next, last, head, elen, degree, w, inList } = ws;
+  elen[n] = -2;
+  Cp[n] = -1;
+  w[n] = 0;
+  nv[n] = 0;
+  const dense = cset ? N : Math.min(N - 2, Math.max(16, 10 * Math.sqrt(N)));
+  for (let i = 0; i < n; i++) {
+    const d = degree[i];
+    if (len[i] === 0) {
+      // empty row: eliminated at once
+      elen[i] = -2;
+      ws.nel += nv[i];
+      Cp[i] = -1;
+      w[i] = 0;
+    } else if (cset) {
+      ws.remaining[cset[i]] += nv[i]; // enters the degree lists when its set comes up
+    } else if (d > dense) {
+      // dense row: absorbed into the placeholder element n, ordered last
+      ws.nel += nv[i];
+      nv[n] += nv[i];
+      nv[i] = 0;
+      elen[i] = -1;
+      Cp[i] = flip(n);
+    } else {
+      if (head[d] !== -1) last[head[d]] = i;
+      next[i] = head[d];
+      head[d] = i;
+      inList[i] = 1;
     }
   }
 }
@@ -391,7 +460,7 @@ function finaliseElement(ws: AmdWork, k: number): void {
   let p = pk1;
   for (let pk = pk1; pk < ws.pk2; pk++) {
     const i = Ci[pk];
-    const nvi = -nv[i];
+    const nvi = 0 - nv[i]; // not −nv[i]: an absorbed variable (nv 0) would give −0
     if (nvi <= 0) continue;
     nv[i] = nvi;
     let d = degree[i] + dk - nvi;
@@ -417,14 +486,17 @@ function finaliseElement(ws: AmdWork, k: number): void {
 
 /** Postorder of the assembly tree (Davis 2006, §7.1 and cs_tdfs); returns the ordering. */
 function postorder(ws: AmdWork): Int32Array {
-  const { n, Cp, nv, next, w } = ws;
-  for (let i = 0; i < n; i++) Cp[i] = flip(Cp[i]);
+  const { n, Cp, nv, next } = ws;
   const thead = ws.hhead; // reused: child lists of the assembly tree, length n + 1
   thead.fill(-1);
+  // Cp[j] becomes the parent of j (−1 at a root); absorbed variables are listed under their
+  // parent, then the elements on top of them.
   for (let j = n - 1; j >= 0; j--) {
+    const p = flip(Cp[j]);
+    Cp[j] = p;
     if (nv[j] > 0) continue;
-    next[j] = thead[Cp[j]];
-    thead[Cp[j]] = j;
+    next[j] = thead[p];
+    thead[p] = j;
   }
   for (let e = n; e >= 0; e--) {
     if (nv[e] <= 0) continue;
@@ -433,27 +505,31 @@ function postorder(ws: AmdWork): Int32Array {
       thead[Cp[e]] = e;
     }
   }
-  const post = new Int32Array(n + 1);
-  const stack = w;
+  const post = ws.last; // free by now
+  treeDepthFirst(n, Cp, thead, next, ws.w, post);
+  // The placeholder n is a root visited last, so it sits at post[n].
+  return post.slice(0, n);
+}
+
+/** post = the nodes 0..n in depth-first postorder from each root (parent[i] = −1) in turn (cs_tdfs). */
+function treeDepthFirst(n: number, parent: Int32Array, head: Int32Array, next: Int32Array, stack: Int32Array, post: Int32Array): void {
   let kk = 0;
   for (let i = 0; i <= n; i++) {
-    if (Cp[i] !== -1) continue;
+    if (parent[i] !== -1) continue;
     let top = 0;
     stack[0] = i;
     while (top >= 0) {
       const q = stack[top];
-      const c = thead[q];
+      const c = head[q];
       if (c === -1) {
         top--;
         post[kk++] = q;
       } else {
-        thead[q] = next[c];
+        head[q] = next[c];
         stack[++top] = c;
       }
     }
   }
-  // The placeholder n is a root visited last, so it sits at post[n].
-  return post.slice(0, n);
 }
 
 /** Resets the marker array w when mark would overflow (cs_wclear). */

@@ -2,6 +2,7 @@ import { ArgumentError } from '../../errors';
 import type { SymmetricCsc } from '../sparse/symmetric';
 import { adjacency } from './graph';
 import type { Graph } from './graph';
+import { Scratch } from './scratch';
 
 /**
  * Size and cost of the Cholesky/LDLᵀ factor of P A Pᵀ, from the pattern alone.
@@ -84,18 +85,65 @@ export function checkedInverse(perm: Int32Array, n: number): Int32Array {
 }
 
 /**
- * nnz(L) (strictly below the diagonal) when each vertex s of a graph stands for a dense block of
- * weight[s] unknowns and the blocks are eliminated in the order corder (a permutation of the
- * graph's vertices): Σₛ wₛ(wₛ − 1)/2 + wₛ·Σ_{t ∈ struct(L(:,s))} w_t. Exact for a compressed graph
- * of indistinguishable vertices, an upper bound for a looser grouping. Same row-subtree method as
- * symbolicFill, on the (smaller) block graph.
+ * Elimination tree and column counts of a block graph eliminated in a given order, where each
+ * vertex s stands for a dense block of weight[s] unknowns eliminated together (see
+ * {@link blockElimination}). Positions are those of the order: block k is corder[k].
  */
-export function blockFill(g: Graph, weight: Int32Array, corder: Int32Array): number {
-  const { n, xadj, adjncy } = g;
-  const pinv = new Int32Array(n);
+export interface BlockElimination {
+  /** parent[k] = position of the parent of block k in the block elimination tree, −1 for a root. */
+  readonly parent: Int32Array;
+  /**
+   * lastCount[k] = nonzeros in the last column of block k of L, diagonal included: 1 + the
+   * unknowns of the blocks in struct(L(:,k)). Column i (0-based) of a block of weight w holds
+   * lastCount[k] + w − 1 − i.
+   */
+  readonly lastCount: Int32Array;
+  /** Σ over columns of the nonzeros strictly below the diagonal. */
+  readonly nnzL: number;
+  /** Σ over columns of c(c + 2), c = nonzeros strictly below the diagonal (as symbolicFill). */
+  readonly flops: number;
+}
+
+/**
+ * Elimination tree and column counts of the block graph g (block s of weight[s] unknowns)
+ * eliminated in the order corder: Liu's algorithm with path compression, then the row subtrees of
+ * the tree (Davis 2006 §4.1 cs_etree, §4.2–4.4), on the block graph. The counts are exact when
+ * the blocks are indistinguishable vertices (compress): the unknowns of one block then share
+ * their structure, so the expanded order has a chain per block in its elimination tree and the
+ * column counts given by lastCount. For a looser grouping they are an upper bound.
+ */
+export function blockElimination(g: Graph, weight: Int32Array, corder: Int32Array, scratch: Scratch = new Scratch()): BlockElimination {
+  const n = g.n;
+  const m = scratch.mark();
+  const pinv = scratch.take(n);
   for (let k = 0; k < n; k++) pinv[corder[k]] = k;
   const parent = new Int32Array(n);
-  const ancestor = new Int32Array(n);
+  const work = scratch.take(n); // ancestors, then marks
+  blockTree(g, corder, pinv, parent, work);
+  const lastCount = new Int32Array(n);
+  blockCounts(g, weight, corder, pinv, parent, work, lastCount);
+  scratch.release(m);
+  let nnzL = 0;
+  let flops = 0;
+  for (let k = 0; k < n; k++) {
+    const w = weight[corder[k]];
+    const below = lastCount[k] - 1;
+    nnzL += (w * (w - 1)) / 2 + w * below;
+    flops += blockFlops(below, w);
+  }
+  return { parent, lastCount, nnzL, flops };
+}
+
+/** Σ c(c + 2) over the columns of a block of w unknowns with `below` unknowns below it: c = below .. below + w − 1. */
+function blockFlops(below: number, w: number): number {
+  let f = 0;
+  for (let c = below; c < below + w; c++) f += c * (c + 2);
+  return f;
+}
+
+/** Elimination tree of the ordered block graph (Liu's algorithm, cs_etree); ancestor is workspace. */
+function blockTree(g: Graph, corder: Int32Array, pinv: Int32Array, parent: Int32Array, ancestor: Int32Array): void {
+  const { n, xadj, adjncy } = g;
   for (let k = 0; k < n; k++) {
     parent[k] = -1;
     ancestor[k] = -1;
@@ -110,9 +158,17 @@ export function blockFill(g: Graph, weight: Int32Array, corder: Int32Array): num
       }
     }
   }
-  const below = new Float64Array(n); // weighted count of rows below each block column
-  const mark = ancestor;
+}
+
+/**
+ * count[j] = 1 + weighted rows below block j, by the row subtrees: row block k has a nonzero in
+ * block column j for every j on the tree paths from the entries of row k up to k (Davis 2006,
+ * Theorem 4.5). mark is workspace.
+ */
+function blockCounts(g: Graph, weight: Int32Array, corder: Int32Array, pinv: Int32Array, parent: Int32Array, mark: Int32Array, count: Int32Array): void {
+  const { n, xadj, adjncy } = g;
   mark.fill(-1);
+  count.fill(1);
   for (let k = 0; k < n; k++) {
     mark[k] = k;
     const v = corder[k];
@@ -121,16 +177,10 @@ export function blockFill(g: Graph, weight: Int32Array, corder: Int32Array): num
       let j = pinv[adjncy[p]];
       if (j >= k) continue;
       while (mark[j] !== k) {
-        below[j] += wk;
+        count[j] += wk;
         mark[j] = k;
         j = parent[j];
       }
     }
   }
-  let total = 0;
-  for (let k = 0; k < n; k++) {
-    const w = weight[corder[k]];
-    total += (w * (w - 1)) / 2 + w * below[k];
-  }
-  return total;
 }

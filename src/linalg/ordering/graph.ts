@@ -1,4 +1,5 @@
 import { checkPattern, type SymmetricCsc } from '../sparse/symmetric';
+import { Scratch } from './scratch';
 
 /**
  * An undirected graph in compressed adjacency form (the "xadj/adjncy" layout of
@@ -21,23 +22,38 @@ export interface Graph {
  *   valid lower-triangle CSC (pointer length or monotonicity, a row out of 0..n−1, a row above
  *   the diagonal, or rows not strictly increasing within a column).
  */
-export function adjacency(pattern: SymmetricCsc): Graph {
-  const { n, colPtr, rowIdx } = pattern;
+export function adjacency(pattern: SymmetricCsc, scratch: Scratch = new Scratch()): Graph {
+  const n = pattern.n;
   checkPattern(pattern);
-  const deg = new Int32Array(n + 1);
+  const xadj = new Int32Array(n + 1);
+  countDegrees(pattern, xadj);
+  for (let v = 0; v < n; v++) xadj[v + 1] += xadj[v];
+  const adjncy = new Int32Array(xadj[n]);
+  const m = scratch.mark();
+  const next = scratch.take(n);
+  next.set(xadj.subarray(0, n));
+  scatterEdges(pattern, next, adjncy);
+  scratch.release(m);
+  return { n, xadj, adjncy };
+}
+
+/** deg[v + 1] = number of off-diagonal entries of the pattern in row or column v. */
+function countDegrees(pattern: SymmetricCsc, deg: Int32Array): void {
+  const { n, colPtr, rowIdx } = pattern;
   for (let j = 0; j < n; j++) {
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const i = rowIdx[p];
       if (i !== j) {
-        deg[i]++;
-        deg[j]++;
+        deg[i + 1]++;
+        deg[j + 1]++;
       }
     }
   }
-  const xadj = new Int32Array(n + 1);
-  for (let v = 0; v < n; v++) xadj[v + 1] = xadj[v] + deg[v];
-  const adjncy = new Int32Array(xadj[n]);
-  const next = xadj.slice(0, n);
+}
+
+/** Writes both directions of every off-diagonal entry, next[v] = where v's next neighbour goes. */
+function scatterEdges(pattern: SymmetricCsc, next: Int32Array, adjncy: Int32Array): void {
+  const { n, colPtr, rowIdx } = pattern;
   for (let j = 0; j < n; j++) {
     for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
       const i = rowIdx[p];
@@ -47,7 +63,6 @@ export function adjacency(pattern: SymmetricCsc): Graph {
       }
     }
   }
-  return { n, xadj, adjncy };
 }
 
 /**
@@ -71,19 +86,37 @@ export interface CompressedGraph {
  * ordering of the compressed graph, expanded, is an ordering of the original with the same fill
  * behaviour (members of one group are eliminated together).
  */
-export function compress(g: Graph): CompressedGraph {
+export function compress(g: Graph, scratch: Scratch = new Scratch()): CompressedGraph {
+  const n = g.n;
+  const m = scratch.mark();
+  const hash = scratch.take(n);
+  hashNeighbourhoods(g, hash);
+  const cid = scratch.take(n);
+  const nc = findIndistinguishable(g, hash, scratch.filled(n, -1), scratch.filled(n, -1), cid);
+  // Nothing merged (bar and plane-frame patterns that store no zero couplings): the graph is its
+  // own quotient; skip the copy.
+  const c = nc === n ? identityQuotient(g) : quotient(g, cid, nc, scratch);
+  scratch.release(m);
+  return c;
+}
+
+/** Hash of the closed neighbourhood of each vertex (sum of indices, wrapped to 32 bits). */
+function hashNeighbourhoods(g: Graph, hash: Int32Array): void {
   const { n, xadj, adjncy } = g;
-  // Hash of the closed neighbourhood (sum of indices, wrapped to 32 bits).
-  const hash = new Int32Array(n);
   for (let v = 0; v < n; v++) {
     let h = v;
     for (let p = xadj[v]; p < xadj[v + 1]; p++) h = (h + adjncy[p]) | 0;
     hash[v] = h;
   }
-  const rep = new Int32Array(n).fill(-1);
-  const mark = new Int32Array(n).fill(-1);
+}
+
+/**
+ * cid[v] = group of v, groups numbered by their first vertex; rep and mark are workspaces set to
+ * −1. @returns the number of groups
+ */
+function findIndistinguishable(g: Graph, hash: Int32Array, rep: Int32Array, mark: Int32Array, cid: Int32Array): number {
+  const { n, xadj, adjncy } = g;
   let nc = 0;
-  const cid = new Int32Array(n);
   for (let v = 0; v < n; v++) {
     if (rep[v] !== -1) continue;
     rep[v] = v;
@@ -99,49 +132,60 @@ export function compress(g: Graph): CompressedGraph {
         for (let q = xadj[v]; q < xadj[v + 1]; q++) mark[adjncy[q]] = v;
         marked = true;
       }
-      let same = true;
-      for (let q = xadj[u]; q < xadj[u + 1]; q++) {
-        if (mark[adjncy[q]] !== v) {
-          same = false;
-          break;
-        }
-      }
-      if (same) {
+      if (sameMarks(g, u, mark, v)) {
         rep[u] = v;
         cid[u] = cid[v];
       }
     }
   }
-  if (nc === n) {
-    // Nothing merged (bar and plane-frame patterns that store no zero couplings): the graph is
-    // its own quotient; skip the copy.
-    const start = new Int32Array(n + 1);
-    const members = new Int32Array(n);
-    for (let v = 0; v < n; v++) {
-      start[v + 1] = v + 1;
-      members[v] = v;
-    }
-    return { graph: g, weight: new Int32Array(n).fill(1), start, members };
-  }
-  return quotient(g, cid, nc);
+  return nc;
+}
+
+/** Whether every neighbour of u carries the mark v. */
+function sameMarks(g: Graph, u: number, mark: Int32Array, v: number): boolean {
+  const { xadj, adjncy } = g;
+  for (let q = xadj[u]; q < xadj[u + 1]; q++) if (mark[adjncy[q]] !== v) return false;
+  return true;
+}
+
+/** The graph as its own quotient: one vertex per group (start and members share one 0, 1, …, n). */
+function identityQuotient(g: Graph): CompressedGraph {
+  const n = g.n;
+  const start = new Int32Array(n + 1);
+  for (let v = 0; v < n; v++) start[v + 1] = v + 1;
+  return { graph: g, weight: new Int32Array(n).fill(1), start, members: start.subarray(0, n) };
 }
 
 /**
  * Quotient graph of g for the grouping cid (cid[v] = group of v, groups 0..nc−1): group s is
  * joined to group t when some member of s is joined to some member of t.
  */
-export function quotient(g: Graph, cid: Int32Array, nc: number): CompressedGraph {
-  const { n, xadj, adjncy } = g;
+export function quotient(g: Graph, cid: Int32Array, nc: number, scratch: Scratch = new Scratch()): CompressedGraph {
+  const n = g.n;
   const weight = new Int32Array(nc);
   for (let v = 0; v < n; v++) weight[cid[v]]++;
   const start = new Int32Array(nc + 1);
   for (let s = 0; s < nc; s++) start[s + 1] = start[s] + weight[s];
   const members = new Int32Array(n);
-  const fillPos = start.slice(0, nc);
+  const m = scratch.mark();
+  const fillPos = scratch.take(nc);
+  fillPos.set(start.subarray(0, nc));
   for (let v = 0; v < n; v++) members[fillPos[cid[v]]++] = v;
   // Quotient adjacency: union of the members' neighbours, mapped and deduplicated.
-  const cmark = new Int32Array(nc).fill(-1);
+  const cmark = scratch.filled(nc, -1);
   const cx = new Int32Array(nc + 1);
+  const total = quotientDegrees(g, cid, start, members, cmark, cx);
+  const cadj = new Int32Array(total);
+  cmark.fill(-1);
+  quotientEdges(g, cid, start, members, cmark, cadj);
+  scratch.release(m);
+  return { graph: { n: nc, xadj: cx, adjncy: cadj }, weight, start, members };
+}
+
+/** cx[s + 1] = cx[s] + distinct groups adjacent to group s; cmark is −1 on entry. @returns cx[nc] */
+function quotientDegrees(g: Graph, cid: Int32Array, start: Int32Array, members: Int32Array, cmark: Int32Array, cx: Int32Array): number {
+  const { xadj, adjncy } = g;
+  const nc = start.length - 1;
   let total = 0;
   for (let s = 0; s < nc; s++) {
     cmark[s] = s;
@@ -157,8 +201,13 @@ export function quotient(g: Graph, cid: Int32Array, nc: number): CompressedGraph
     }
     cx[s + 1] = total;
   }
-  const cadj = new Int32Array(total);
-  cmark.fill(-1);
+  return total;
+}
+
+/** The neighbour lists counted by quotientDegrees, in the same order; cmark is −1 on entry. */
+function quotientEdges(g: Graph, cid: Int32Array, start: Int32Array, members: Int32Array, cmark: Int32Array, cadj: Int32Array): void {
+  const { xadj, adjncy } = g;
+  const nc = start.length - 1;
   let w = 0;
   for (let s = 0; s < nc; s++) {
     cmark[s] = s;
@@ -173,7 +222,6 @@ export function quotient(g: Graph, cid: Int32Array, nc: number): CompressedGraph
       }
     }
   }
-  return { graph: { n: nc, xadj: cx, adjncy: cadj }, weight, start, members };
 }
 
 /**
@@ -187,10 +235,11 @@ export function quotient(g: Graph, cid: Int32Array, nc: number): CompressedGraph
  * practice in finite-element solvers: order the nodal graph, then expand). The grouping is a
  * heuristic: callers compare its fill with the exact compression's and keep the better.
  */
-export function groupNodes(g: Graph, window = 5, similarity = 0.2, maxSize = 6): CompressedGraph {
+export function groupNodes(g: Graph, window = 5, similarity = 0.2, maxSize = 6, scratch: Scratch = new Scratch()): CompressedGraph {
   const { n, xadj, adjncy } = g;
-  const parent = new Int32Array(n);
-  const size = new Int32Array(n).fill(1);
+  const m0 = scratch.mark();
+  const parent = scratch.take(n);
+  const size = scratch.filled(n, 1);
   for (let v = 0; v < n; v++) parent[v] = v;
   const find = (v: number): number => {
     while (parent[v] !== v) {
@@ -199,7 +248,7 @@ export function groupNodes(g: Graph, window = 5, similarity = 0.2, maxSize = 6):
     }
     return v;
   };
-  const mark = new Int32Array(n).fill(-1);
+  const mark = scratch.filled(n, -1);
   for (let i = 0; i < n; i++) {
     const di = xadj[i + 1] - xadj[i] + 1;
     let marked = false;
@@ -227,15 +276,17 @@ export function groupNodes(g: Graph, window = 5, similarity = 0.2, maxSize = 6):
       }
     }
   }
-  const cid = new Int32Array(n).fill(-1);
-  const rootId = new Int32Array(n).fill(-1);
+  const cid = scratch.filled(n, -1);
+  const rootId = scratch.filled(n, -1);
   let nc = 0;
   for (let v = 0; v < n; v++) {
     const r = find(v);
     if (rootId[r] === -1) rootId[r] = nc++;
     cid[v] = rootId[r];
   }
-  return quotient(g, cid, nc);
+  const c = quotient(g, cid, nc, scratch);
+  scratch.release(m0);
+  return c;
 }
 
 /** Expands an ordering of the compressed vertices into one of the original vertices. */

@@ -5,14 +5,21 @@
 import { ArgumentError } from '../../errors';
 import type { SymmetricCsc } from '../sparse/symmetric';
 import { amdGraph } from './amd';
-import { blockFill } from './fill';
+import { enoughFlops } from './enough';
+import { blockElimination } from './fill';
+import type { BlockElimination } from './fill';
 import { adjacency, compress, expand, groupNodes } from './graph';
 import type { CompressedGraph } from './graph';
 import { ndGraph, resolveNdOptions } from './nd';
 import type { NestedDissectionOptions } from './nd';
 import { rcmGraph } from './rcm';
+import { Scratch } from './scratch';
 
+export { AUTO_ENOUGH_FLOPS_PER_ENTRY, AUTO_ENOUGH_MIN_N, enoughFlops } from './enough';
 export { symbolicFill } from './fill';
+export type { BlockElimination } from './fill';
+export { amdScratchLength } from './amd';
+export { Scratch, float64Entries } from './scratch';
 export { ND_DEFAULTS } from './nd';
 export type { NestedDissectionOptions } from './nd';
 
@@ -72,41 +79,53 @@ export function amd(pattern: SymmetricCsc): Int32Array {
 export interface NodeBlocks {
   readonly blocks: CompressedGraph;
   readonly amdOrder: Int32Array;
+  /**
+   * Elimination tree and column counts of amdOrder on the blocks, when the blocks are the exact
+   * compression (indistinguishable vertices): then they are those of the expanded order, and a
+   * caller needs no second symbolic pass over the full pattern (see blockElimination).
+   */
+  readonly elimination?: BlockElimination;
 }
 
 /**
  * The vertex grouping of a pattern that `amd` and `nd` order (see chooseBlocks), with the AMD
  * order of its quotient graph.
+ * @param scratch - where temporaries are carved (given back on return); enough for every step
+ *   with {@link amdScratchLength}(n, 2 × off-diagonal entries, n) entries
  * @throws ArgumentError (path `pattern.*`) for an invalid pattern
  */
-export function nodeBlocks(pattern: SymmetricCsc): NodeBlocks {
-  return chooseBlocks(pattern);
+export function nodeBlocks(pattern: SymmetricCsc, scratch?: Scratch): NodeBlocks {
+  return chooseBlocks(pattern, scratch);
 }
 
 /**
  * Picks the vertex grouping to order: the exact compression (indistinguishable vertices) or one
  * of two node groupings (see groupNodes: up to 6 DOFs of a frame node within index distance 5,
  * or up to 3 DOFs of a bar node within distance 2). Each candidate is ordered by AMD and the one
- * with the least block fill wins; ties keep the exact compression.
+ * with the least block fill wins; ties keep the exact compression. The groupings are not tried
+ * when the exact compression's order already factors in fewer flops than {@link enoughFlops}
+ * (the rule `analyse` applies to its candidates): a grouping would cost more to compute than it
+ * could save.
  */
-function chooseBlocks(pattern: SymmetricCsc): { blocks: CompressedGraph; amdOrder: Int32Array } {
-  const g = adjacency(pattern);
-  const exact = compress(g);
-  let blocks = exact;
-  let amdOrder = amdGraph(exact.graph, exact.weight);
-  let best = blockFill(exact.graph, exact.weight, amdOrder);
+function chooseBlocks(pattern: SymmetricCsc, scratch: Scratch = new Scratch()): NodeBlocks {
+  const g = adjacency(pattern, scratch);
+  const exact = compress(g, scratch);
+  const exactOrder = amdGraph(exact.graph, exact.weight, undefined, scratch);
+  const elimination = blockElimination(exact.graph, exact.weight, exactOrder, scratch);
+  let best: NodeBlocks = { blocks: exact, amdOrder: exactOrder, elimination };
+  if (elimination.flops < enoughFlops(pattern)) return best;
+  let bestFill = elimination.nnzL;
   for (const [window, maxSize] of GROUPINGS) {
-    const c = groupNodes(g, window, 0.2, maxSize);
+    const c = groupNodes(g, window, 0.2, maxSize, scratch);
     if (c.graph.n >= exact.graph.n) continue; // nothing merged beyond the exact compression
-    const o = amdGraph(c.graph, c.weight);
-    const f = blockFill(c.graph, c.weight, o);
-    if (f < best) {
-      best = f;
-      blocks = c;
-      amdOrder = o;
+    const o = amdGraph(c.graph, c.weight, undefined, scratch);
+    const f = blockElimination(c.graph, c.weight, o, scratch).nnzL;
+    if (f < bestFill) {
+      bestFill = f;
+      best = { blocks: c, amdOrder: o };
     }
   }
-  return { blocks, amdOrder };
+  return best;
 }
 
 /** Node groupings tried by chooseBlocks: [index window, maximum group size]. */
