@@ -133,10 +133,13 @@ export function rayleighRitz(x: Float64Array, kx: Float64Array, mx: Float64Array
  * result is the same to the bit.
  * @param x - basis, column-major n × q (overwritten with the Ritz vectors)
  * @param k - y ← K·x
- * @param mx - M·X, column-major n × q (overwritten with M times the Ritz vectors)
+ * @param mx - M·X, column-major n × q (overwritten with M times the Ritz vectors when
+ *   `rotateMass`, else left as it is: M times the input basis)
  * @param tmp - work buffer, length ≥ q (larger is faster: rows are rotated in blocks)
+ * @param rotateMass - rotate mx too (a caller that needs no M·X afterwards saves an n × q × q
+ *   product) @defaultValue true
  */
-export function rayleighRitzOperator(x: Float64Array, k: Operator, mx: Float64Array, n: number, q: number, tmp: Float64Array): Float64Array {
+export function rayleighRitzOperator(x: Float64Array, k: Operator, mx: Float64Array, n: number, q: number, tmp: Float64Array, rotateMass = true): Float64Array {
   const a = new Float64Array(q * q);
   const b = new Float64Array(q * q);
   const kx = new Float64Array(n);
@@ -147,7 +150,7 @@ export function rayleighRitzOperator(x: Float64Array, k: Operator, mx: Float64Ar
   gram(x, mx, n, q, q, b);
   const { values, vectors } = projectedEigen(a, b, q);
   combineColumnsInPlace(x, n, 0, q, vectors, q, q, tmp);
-  combineColumnsInPlace(mx, n, 0, q, vectors, q, q, tmp);
+  if (rotateMass) combineColumnsInPlace(mx, n, 0, q, vectors, q, q, tmp);
   return values;
 }
 

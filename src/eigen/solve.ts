@@ -135,7 +135,10 @@ export const SOLVE_DEFAULTS = {
 
 const METHODS: readonly SolveMethod[] = ['auto', 'dense', 'jacobi', 'cholesky', 'lanczos', 'subspace'];
 
-/** Pairs found so far: ascending λ, M-orthonormal X and M·X, column-major n × m. */
+/**
+ * Pairs found so far: ascending λ and M-orthonormal X, column-major n × m; mx is the storage
+ * of M times the basis before the last projection (not M·X: a merge recomputes that).
+ */
 interface Pool {
   m: number;
   values: Float64Array;
@@ -484,11 +487,14 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
     x = new Float64Array(n * m);
     mx = new Float64Array(n * m);
     x.set(pool.x.subarray(0, n * m0));
-    mx.set(pool.mx.subarray(0, n * m0));
+    // The pool keeps M·x of its basis before the last projection (see below): take M times the
+    // pool's Ritz vectors afresh (a rerun after a Sturm count, rare).
+    run.mop.applyMany(pool.x, mx, m0);
     x.set(newX.subarray(0, n * p), n * m0);
     mx.set(newMX.subarray(0, n * p), n * m0);
   }
-  pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m));
+  // M·x is not rotated with the vectors: only a later merge reads it, and that recomputes it.
+  pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m), false);
   pool.x = x;
   pool.mx = mx;
   pool.m = m;
