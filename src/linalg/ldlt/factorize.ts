@@ -133,178 +133,264 @@ export function factorizeReusing(symbolic: SymbolicFactor, values: Float64Array,
       'values',
     );
   }
-  const { n, perm, superStart, superOf, rowPtr, rows, lxPos, diagPos } = sym;
-  const lxPtr = Int32Array.from(sym.lxPtr); // integer offsets, as in the factor's solves
+  const n = sym.n;
   const ns = sym.supernodes;
+  const lxPtr = Int32Array.from(sym.lxPtr); // integer offsets, as in the factor's solves
 
   // --- Scatter A into the supernode blocks ------------------------------------------------
   const lx = storage !== undefined && storage.length === lxPtr[ns] ? storage.fill(0) : new Float64Array(lxPtr[ns]);
-  const nz = sym.patternNnz;
+  scatterValues(values, sym.lxPos, sym.patternNnz, lx);
+  const maxDiag = largestDiagonal(values, sym.diagPos, n);
+  const w = new NumericWork(sym, lxPtr, lx, tolerance * maxDiag, maxDiag, matrixName);
+  for (let s = 0; s < ns; s++) factorSupernode(w, s);
+  return new SupernodalFactor(sym, lx, w.d, w.negative, n === 0 ? Infinity : w.minRatio);
+}
+
+/** lx[lxPos[p]] ← values[p], refusing a non-finite value. */
+function scatterValues(values: Float64Array, lxPos: Int32Array, nz: number, lx: Float64Array): void {
   for (let p = 0; p < nz; p++) {
     const v = values[p];
     if (!Number.isFinite(v)) throw new ArgumentError(`value ${v} is not finite; the matrix must hold finite numbers`, `values[${p}]`);
     lx[lxPos[p]] = v;
   }
+}
+
+/** max |A_jj| over the stored diagonal. */
+function largestDiagonal(values: Float64Array, diagPos: Int32Array, n: number): number {
   let maxDiag = 0;
   for (let j = 0; j < n; j++) if (diagPos[j] >= 0) maxDiag = Math.max(maxDiag, Math.abs(values[diagPos[j]]));
-  const tol = tolerance * maxDiag;
+  return maxDiag;
+}
 
-  // --- Workspaces, sized by analyse --------------------------------------------------------
-  const d = new Float64Array(n);
-  const rel = new Int32Array(n);
-  const linkHead = new Int32Array(ns).fill(-1);
-  const linkNext = new Int32Array(ns);
-  const nextPos = new Int32Array(ns);
-  const scratch = new Float64Array(sym.maxBlock);
-  // Scaled copy of L_d's rows that hit the target (q × ncd, q ≤ rows below d's block) or of a
-  // panel's rows (PANEL × columns on its left).
-  let scaledSize = Math.min(PANEL, sym.maxCols) * sym.maxCols;
-  for (let s = 0; s < ns; s++) {
-    const nc = superStart[s + 1] - superStart[s];
-    scaledSize = Math.max(scaledSize, nc * Math.min(rowPtr[s + 1] - rowPtr[s] - nc, sym.maxCols));
+/**
+ * Everything one numeric factorization reads and writes, sized by analyse; the phases of a
+ * supernode are small functions over it (each compiles to optimized code on its own, early in
+ * the first factorization, instead of one large function recompiled as rare branches appear).
+ */
+class NumericWork {
+  readonly perm: Int32Array;
+  readonly superStart: Int32Array;
+  readonly superOf: Int32Array;
+  readonly rowPtr: Int32Array;
+  readonly rows: Int32Array;
+  readonly d: Float64Array;
+  readonly rel: Int32Array;
+  readonly linkHead: Int32Array;
+  readonly linkNext: Int32Array;
+  readonly nextPos: Int32Array;
+  readonly scratch: Float64Array;
+  /**
+   * Scaled copy of L_d's rows that hit the target (q × ncd, q ≤ rows below d's block) or of a
+   * panel's rows (PANEL × columns on its left).
+   */
+  readonly scaled: Float64Array;
+  readonly colLocal: Int32Array;
+  /** wd(j, c) = L(j, c)·d_c of the current panel, row-major with stride PANEL. */
+  readonly wd: Float64Array;
+  readonly inv: Float64Array;
+  negative = 0;
+  minRatio = Infinity;
+
+  constructor(
+    sym: SupernodalSymbolic,
+    readonly lxPtr: Int32Array,
+    readonly lx: Float64Array,
+    readonly tol: number,
+    readonly maxDiag: number,
+    readonly matrixName: string,
+  ) {
+    const n = sym.n;
+    const ns = sym.supernodes;
+    this.perm = sym.perm;
+    this.superStart = sym.superStart;
+    this.superOf = sym.superOf;
+    this.rowPtr = sym.rowPtr;
+    this.rows = sym.rows;
+    this.d = new Float64Array(n);
+    this.rel = new Int32Array(n);
+    this.linkHead = new Int32Array(ns).fill(-1);
+    this.linkNext = new Int32Array(ns);
+    this.nextPos = new Int32Array(ns);
+    this.scratch = new Float64Array(sym.maxBlock);
+    let scaledSize = Math.min(PANEL, sym.maxCols) * sym.maxCols;
+    for (let s = 0; s < ns; s++) {
+      const nc = this.superStart[s + 1] - this.superStart[s];
+      scaledSize = Math.max(scaledSize, nc * Math.min(this.rowPtr[s + 1] - this.rowPtr[s] - nc, sym.maxCols));
+    }
+    this.scaled = new Float64Array(scaledSize);
+    this.colLocal = new Int32Array(sym.maxCols);
+    this.wd = new Float64Array(PANEL * PANEL);
+    this.inv = new Float64Array(PANEL);
   }
-  const scaled = new Float64Array(scaledSize);
-  const colLocal = new Int32Array(sym.maxCols);
-  const wd = new Float64Array(PANEL * PANEL);
-  const inv = new Float64Array(PANEL);
-  let negative = 0;
-  let minRatio = Infinity;
+}
 
-  for (let s = 0; s < ns; s++) {
-    const f = superStart[s];
-    const nc = superStart[s + 1] - f;
-    const l = f + nc - 1;
-    const r0 = rowPtr[s];
-    const nr = rowPtr[s + 1] - r0;
-    const base = lxPtr[s];
-    for (let t = 0; t < nr; t++) rel[rows[r0 + t]] = t;
+/** Updates supernode s from its descendants, factors its block by panels, links it to its ancestor. */
+function factorSupernode(w: NumericWork, s: number): void {
+  const { superStart, rowPtr, rows, rel } = w;
+  const f = superStart[s];
+  const nc = superStart[s + 1] - f;
+  const r0 = rowPtr[s];
+  const nr = rowPtr[s + 1] - r0;
+  for (let t = 0; t < nr; t++) rel[rows[r0 + t]] = t;
 
-    // --- Updates from descendants: L_s −= L_d(rows ≥ f) · D_d · L_d(rows in [f, l])ᵀ ------
-    let dn = linkHead[s];
-    linkHead[s] = -1;
-    while (dn !== -1) {
-      const nextD = linkNext[dn];
-      const fd = superStart[dn];
-      const ncd = superStart[dn + 1] - fd;
-      const rd0 = rowPtr[dn];
-      const nrd = rowPtr[dn + 1] - rd0;
-      const based = lxPtr[dn];
-      const p1 = nextPos[dn];
-      let p2 = p1;
-      while (p2 < nrd && rows[rd0 + p2] <= l) p2++;
-      const m = nrd - p1;
-      const q = p2 - p1;
-      for (let j = 0; j < q; j++) {
-        const src = based + (p1 + j) * ncd;
-        const dst = j * ncd;
-        for (let c = 0; c < ncd; c++) scaled[dst + c] = lx[src + c] * d[fd + c];
-        colLocal[j] = rows[rd0 + p1 + j] - f;
-      }
-      scratch.fill(0, 0, m * q);
-      gemmSubNT(m, q, ncd, lx, based + p1 * ncd, ncd, scaled, 0, ncd, scratch, 0, q, 0);
-      for (let i = 0; i < m; i++) {
-        const ri = base + rel[rows[rd0 + p1 + i]] * nc;
-        const jmax = i < q ? i + 1 : q;
-        const ui = i * q;
-        for (let j = 0; j < jmax; j++) lx[ri + colLocal[j]] += scratch[ui + j];
-      }
-      nextPos[dn] = p2;
-      if (p2 < nrd) {
-        const t = superOf[rows[rd0 + p2]];
-        linkNext[dn] = linkHead[t];
-        linkHead[t] = dn;
-      }
-      dn = nextD;
+  // --- Updates from descendants: L_s −= L_d(rows ≥ f) · D_d · L_d(rows in [f, l])ᵀ ---------
+  let dn = w.linkHead[s];
+  w.linkHead[s] = -1;
+  while (dn !== -1) {
+    const nextD = w.linkNext[dn];
+    updateFromDescendant(w, s, dn);
+    dn = nextD;
+  }
+
+  // --- Factor the supernode's block, panel by panel ---------------------------------------
+  const base = w.lxPtr[s];
+  for (let j0 = 0; j0 < nc; j0 += PANEL) {
+    const j1 = Math.min(nc, j0 + PANEL);
+    if (j0 > 0) updatePanel(w, f, nc, nr, base, j0, j1);
+    factorDiagonalBlock(w, f, nc, base, j0, j1);
+    solveBelowPanel(w, nc, nr, base, j0, j1);
+  }
+  // This supernode now updates its ancestors: link it to the supernode of its first row below.
+  if (nc < nr) {
+    w.nextPos[s] = nc;
+    const t = w.superOf[rows[r0 + nc]];
+    w.linkNext[s] = w.linkHead[t];
+    w.linkHead[t] = s;
+  }
+}
+
+/**
+ * L_s −= L_d(rows ≥ f) · D_d · L_d(rows in [f, l])ᵀ for one descendant dn of supernode s,
+ * through the scratch block and relative indices; then links dn to the next supernode it updates.
+ */
+function updateFromDescendant(w: NumericWork, s: number, dn: number): void {
+  const { superStart, rowPtr, rows, lxPtr, lx, d, scaled, colLocal, scratch, rel } = w;
+  const f = superStart[s];
+  const nc = superStart[s + 1] - f;
+  const l = f + nc - 1;
+  const base = lxPtr[s];
+  const fd = superStart[dn];
+  const ncd = superStart[dn + 1] - fd;
+  const rd0 = rowPtr[dn];
+  const nrd = rowPtr[dn + 1] - rd0;
+  const based = lxPtr[dn];
+  const p1 = w.nextPos[dn];
+  let p2 = p1;
+  while (p2 < nrd && rows[rd0 + p2] <= l) p2++;
+  const m = nrd - p1;
+  const q = p2 - p1;
+  for (let j = 0; j < q; j++) {
+    const src = based + (p1 + j) * ncd;
+    const dst = j * ncd;
+    for (let c = 0; c < ncd; c++) scaled[dst + c] = lx[src + c] * d[fd + c];
+    colLocal[j] = rows[rd0 + p1 + j] - f;
+  }
+  scratch.fill(0, 0, m * q);
+  gemmSubNT(m, q, ncd, lx, based + p1 * ncd, ncd, scaled, 0, ncd, scratch, 0, q, 0);
+  for (let i = 0; i < m; i++) {
+    const ri = base + rel[rows[rd0 + p1 + i]] * nc;
+    const jmax = i < q ? i + 1 : q;
+    const ui = i * q;
+    for (let j = 0; j < jmax; j++) lx[ri + colLocal[j]] += scratch[ui + j];
+  }
+  w.nextPos[dn] = p2;
+  if (p2 < nrd) {
+    const t = w.superOf[rows[rd0 + p2]];
+    w.linkNext[dn] = w.linkHead[t];
+    w.linkHead[t] = dn;
+  }
+}
+
+/** Panel update from the columns on its left: L(j0:, j0:j1) −= L(j0:, :j0) D L(j0:j1, :j0)ᵀ. */
+function updatePanel(w: NumericWork, f: number, nc: number, nr: number, base: number, j0: number, j1: number): void {
+  const { lx, d, scaled } = w;
+  const width = j1 - j0;
+  for (let j = 0; j < width; j++) {
+    const src = base + (j0 + j) * nc;
+    const dst = j * j0;
+    for (let c = 0; c < j0; c++) scaled[dst + c] = lx[src + c] * d[f + c];
+  }
+  gemmSubNT(nr - j0, width, j0, lx, base + j0 * nc, nc, scaled, 0, j0, lx, base + j0 * nc + j0, nc, 0);
+}
+
+/**
+ * Diagonal block of the panel: unblocked LDLᵀ in dot-product form; wd(j, c) = L(j, c)·d_c is
+ * kept (row-major, stride PANEL) for the rows below. Counts negative pivots and the smallest
+ * pivot ratio; a pivot at or below the tolerance is a FactorizationError naming the row.
+ */
+function factorDiagonalBlock(w: NumericWork, f: number, nc: number, base: number, j0: number, j1: number): void {
+  const { lx, d, wd, inv } = w;
+  for (let j = j0; j < j1; j++) {
+    const rj = base + j * nc;
+    const wj = (j - j0) * PANEL - j0;
+    let dj = lx[rj + j];
+    for (let c = j0; c < j; c++) {
+      const t = lx[rj + c] * d[f + c];
+      wd[wj + c] = t;
+      dj -= t * lx[rj + c];
     }
-
-    // --- Factor the supernode's block, panel by panel ---------------------------------------
-    for (let j0 = 0; j0 < nc; j0 += PANEL) {
-      const j1 = Math.min(nc, j0 + PANEL);
-      const w = j1 - j0;
-      if (j0 > 0) {
-        // Panel update from the columns on its left: L(j0:, j0:j1) −= L(j0:, :j0) D L(j0:j1, :j0)ᵀ
-        for (let j = 0; j < w; j++) {
-          const src = base + (j0 + j) * nc;
-          const dst = j * j0;
-          for (let c = 0; c < j0; c++) scaled[dst + c] = lx[src + c] * d[f + c];
-        }
-        gemmSubNT(nr - j0, w, j0, lx, base + j0 * nc, nc, scaled, 0, j0, lx, base + j0 * nc + j0, nc, 0);
-      }
-      // Diagonal block of the panel: unblocked LDLᵀ in dot-product form; wd(j, c) = L(j, c)·d_c
-      // is kept (row-major, stride PANEL) for the rows below.
-      for (let j = j0; j < j1; j++) {
-        const rj = base + j * nc;
-        const wj = (j - j0) * PANEL - j0;
-        let dj = lx[rj + j];
-        for (let c = j0; c < j; c++) {
-          const t = lx[rj + c] * d[f + c];
-          wd[wj + c] = t;
-          dj -= t * lx[rj + c];
-        }
-        if (!(Math.abs(dj) > tol)) {
-          const row = perm[f + j];
-          throw new FactorizationError(
-            `${matrixName} is singular at row ${row} (pivot ${dj.toExponential(2)}, tolerance ${tol.toExponential(2)} = pivotTolerance × max|A_jj|); the structure may be a mechanism there, or the shift sits on an eigenvalue — add a support or spring, or move the shift`,
-            `row ${row}`,
-          );
-        }
-        d[f + j] = dj;
-        inv[j - j0] = 1 / dj;
-        if (dj < 0) negative++;
-        const ratio = Math.abs(dj) / maxDiag;
-        if (ratio < minRatio) minRatio = ratio;
-        for (let i = j + 1; i < j1; i++) {
-          const ri = base + i * nc;
-          let t = lx[ri + j];
-          for (let c = j0; c < j; c++) t -= lx[ri + c] * wd[wj + c];
-          lx[ri + j] = t / dj;
-        }
-      }
-      // Rows below the panel's diagonal block: L(i, j) = (A(i, j) − Σ_c L(i, c)·wd(j, c)) / d_j,
-      // a triangular solve done four rows at a time so that each wd load serves four rows.
-      let i = j1;
-      for (; i + 4 <= nr; i += 4) {
-        const a0 = base + i * nc;
-        const a1 = a0 + nc;
-        const a2 = a1 + nc;
-        const a3 = a2 + nc;
-        for (let j = j0; j < j1; j++) {
-          const wj = (j - j0) * PANEL - j0;
-          let t0 = lx[a0 + j];
-          let t1 = lx[a1 + j];
-          let t2 = lx[a2 + j];
-          let t3 = lx[a3 + j];
-          for (let c = j0; c < j; c++) {
-            const wc = wd[wj + c];
-            t0 -= lx[a0 + c] * wc;
-            t1 -= lx[a1 + c] * wc;
-            t2 -= lx[a2 + c] * wc;
-            t3 -= lx[a3 + c] * wc;
-          }
-          const r = inv[j - j0];
-          lx[a0 + j] = t0 * r;
-          lx[a1 + j] = t1 * r;
-          lx[a2 + j] = t2 * r;
-          lx[a3 + j] = t3 * r;
-        }
-      }
-      for (; i < nr; i++) {
-        const a0 = base + i * nc;
-        for (let j = j0; j < j1; j++) {
-          const wj = (j - j0) * PANEL - j0;
-          let t0 = lx[a0 + j];
-          for (let c = j0; c < j; c++) t0 -= lx[a0 + c] * wd[wj + c];
-          lx[a0 + j] = t0 * inv[j - j0];
-        }
-      }
-    }
-    // This supernode now updates its ancestors: link it to the supernode of its first row below.
-    if (nc < nr) {
-      nextPos[s] = nc;
-      const t = superOf[rows[r0 + nc]];
-      linkNext[s] = linkHead[t];
-      linkHead[t] = s;
+    if (!(Math.abs(dj) > w.tol)) throw singularPivot(w, f + j, dj);
+    d[f + j] = dj;
+    inv[j - j0] = 1 / dj;
+    if (dj < 0) w.negative++;
+    const ratio = Math.abs(dj) / w.maxDiag;
+    if (ratio < w.minRatio) w.minRatio = ratio;
+    for (let i = j + 1; i < j1; i++) {
+      const ri = base + i * nc;
+      let t = lx[ri + j];
+      for (let c = j0; c < j; c++) t -= lx[ri + c] * wd[wj + c];
+      lx[ri + j] = t / dj;
     }
   }
-  return new SupernodalFactor(sym, lx, d, negative, n === 0 ? Infinity : minRatio);
+}
+
+function singularPivot(w: NumericWork, column: number, dj: number): FactorizationError {
+  const row = w.perm[column];
+  return new FactorizationError(
+    `${w.matrixName} is singular at row ${row} (pivot ${dj.toExponential(2)}, tolerance ${w.tol.toExponential(2)} = pivotTolerance × max|A_jj|); the structure may be a mechanism there, or the shift sits on an eigenvalue — add a support or spring, or move the shift`,
+    `row ${row}`,
+  );
+}
+
+/**
+ * Rows below the panel's diagonal block: L(i, j) = (A(i, j) − Σ_c L(i, c)·wd(j, c)) / d_j, a
+ * triangular solve done four rows at a time so that each wd load serves four rows.
+ */
+function solveBelowPanel(w: NumericWork, nc: number, nr: number, base: number, j0: number, j1: number): void {
+  const { lx, wd, inv } = w;
+  let i = j1;
+  for (; i + 4 <= nr; i += 4) {
+    const a0 = base + i * nc;
+    const a1 = a0 + nc;
+    const a2 = a1 + nc;
+    const a3 = a2 + nc;
+    for (let j = j0; j < j1; j++) {
+      const wj = (j - j0) * PANEL - j0;
+      let t0 = lx[a0 + j];
+      let t1 = lx[a1 + j];
+      let t2 = lx[a2 + j];
+      let t3 = lx[a3 + j];
+      for (let c = j0; c < j; c++) {
+        const wc = wd[wj + c];
+        t0 -= lx[a0 + c] * wc;
+        t1 -= lx[a1 + c] * wc;
+        t2 -= lx[a2 + c] * wc;
+        t3 -= lx[a3 + c] * wc;
+      }
+      const r = inv[j - j0];
+      lx[a0 + j] = t0 * r;
+      lx[a1 + j] = t1 * r;
+      lx[a2 + j] = t2 * r;
+      lx[a3 + j] = t3 * r;
+    }
+  }
+  for (; i < nr; i++) {
+    const a0 = base + i * nc;
+    for (let j = j0; j < j1; j++) {
+      const wj = (j - j0) * PANEL - j0;
+      let t0 = lx[a0 + j];
+      for (let c = j0; c < j; c++) t0 -= lx[a0 + c] * wd[wj + c];
+      lx[a0 + j] = t0 * inv[j - j0];
+    }
+  }
 }
