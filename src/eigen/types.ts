@@ -38,7 +38,10 @@ export interface EigenResult {
   readonly n: number;
   /** Eigenvalues λ in rad²/s², ascending, length m. Infinite eigenvalues are never included. */
   readonly eigenvalues: Float64Array;
-  /** Mode shapes, column-major n × m, M-orthonormal (φᵢᵀ M φⱼ = δᵢⱼ). */
+  /**
+   * Mode shapes, column-major n × m, M-orthonormal (φᵢᵀ M φⱼ = δᵢⱼ). May be a view of a larger
+   * buffer (the sparse iteration's): copy it (`slice()`) before transferring `vectors.buffer`.
+   */
   readonly vectors: Float64Array;
   /** Per mode: ‖Kx − λMx‖ / (‖K‖ ‖x‖), ‖K‖ the 1-norm estimate used by the solver. */
   readonly residuals: Float64Array;
