@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Matrix } from 'ml-matrix';
 import { mlMatrixGeneralized } from '../src/eigen/baseline';
-import { matrixNorm1, orthogonalityError, residuals } from '../src/eigen/verify';
+import { matrixNorm1, modeChecks, orthogonalityError, rayleighModeChecks, residuals } from '../src/eigen/verify';
 import { ArgumentError, VerificationError } from '../src/errors';
 import type { Operator } from '../src/linalg/operator';
 import { fromDenseArray, symmetricMultiply } from '../src/linalg/sparse/symmetric';
@@ -52,6 +52,25 @@ describe('verify: checks of eigenpairs', () => {
     const r2 = residuals(K, M, wrong, ref.vectors);
     expect(r2[3]).toBeGreaterThan(1e-4);
     expect(r2[2]).toBeLessThan(1e-12);
+  });
+
+  it('rayleighModeChecks replaces perturbed values by the Rayleigh quotients of the modes', () => {
+    // The reference modes are exact eigenvectors (ml-matrix's dense route), so each Rayleigh
+    // quotient xᵀKx / xᵀMx is its eigenvalue: values off by 1 % come back to the reference, and
+    // the residuals and orthogonality are those modeChecks gives with the reference values.
+    const wrong = ref.eigenvalues.map((v, j) => v * (j % 2 === 0 ? 1.01 : 0.99));
+    const got = rayleighModeChecks(K, M, wrong, ref.vectors);
+    for (let j = 0; j < n; j++) expect(Math.abs(wrong[j] - ref.eigenvalues[j]) / ref.eigenvalues[j]).toBeLessThan(1e-12);
+    for (const x of got.residuals) expect(x).toBeLessThan(1e-12);
+    expect(got.orthogonalityError).toBe(modeChecks(K, M, ref.eigenvalues, ref.vectors).orthogonalityError);
+    // A mode scaled by 1.1 has the same quotient (scale-invariant); its M-norm error shows.
+    const v = ref.vectors.slice();
+    for (let i = 0; i < n; i++) v[4 * n + i] *= 1.1;
+    const values = ref.eigenvalues.slice();
+    values[4] *= 2;
+    const scaled = rayleighModeChecks(K, M, values, v);
+    expect(Math.abs(values[4] - ref.eigenvalues[4]) / ref.eigenvalues[4]).toBeLessThan(1e-12);
+    expect(scaled.orthogonalityError).toBeCloseTo(0.21, 10);
   });
 
   it('orthogonalityError of the reference modes is at round-off, and sees a scaled mode', () => {

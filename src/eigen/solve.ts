@@ -23,7 +23,7 @@ import { lowestModesShift, type LowestModesShift } from './shift';
 import { STURM_PIVOT_TOLERANCE, sturmCheck } from './sturm';
 import { subspaceIteration } from './subspace';
 import type { EigenMethod, EigenResult, SturmCheck } from './types';
-import { matrixNorm1, modeChecks } from './verify';
+import { matrixNorm1, modeChecks, rayleighModeChecks } from './verify';
 
 /** Methods `solve` accepts: `auto`, `dense` (= the dense default, Cholesky), or a named one. */
 export type SolveMethod = 'auto' | 'dense' | EigenMethod;
@@ -144,6 +144,11 @@ interface Pool {
   values: Float64Array;
   x: Float64Array;
   mx: Float64Array;
+  /**
+   * False while the pool is one Lanczos run taken as it came (values σ + 1/θ, see extend's
+   * `projectFirstRun`): the result's checks then replace them by Rayleigh quotients.
+   */
+  projected: boolean;
 }
 
 /**
@@ -295,8 +300,16 @@ function verifiedResult(
   normK: number | undefined,
   tv: number,
   stats: (verifyMs: number) => Record<string, number>,
+  rayleigh = false,
 ): EigenResult {
-  const { residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, normK);
+  let res: Float64Array;
+  let orth: number;
+  if (rayleigh) {
+    ({ residuals: res, orthogonalityError: orth } = rayleighModeChecks(K, M, values, vectors, normK));
+    ({ values, vectors, residuals: res } = ascending(values, vectors, res, K.n));
+  } else {
+    ({ residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, normK));
+  }
   if (verify) assertAccepted(values, res, orth, sturm);
   const verifyMs = performance.now() - tv;
   return {
@@ -309,6 +322,28 @@ function verifiedResult(
     method,
     stats: stats(verifyMs),
   };
+}
+
+/**
+ * The modes in ascending order of value (ties keep their order). Rayleigh quotients of nearly
+ * equal eigenvalues may come out of the order of the values they replaced; the arrays are then
+ * permuted into new ones, else returned as they are.
+ */
+function ascending(values: Float64Array, vectors: Float64Array, residuals: Float64Array, n: number): { values: Float64Array; vectors: Float64Array; residuals: Float64Array } {
+  const m = values.length;
+  let sorted = true;
+  for (let j = 1; j < m; j++) if (values[j] < values[j - 1]) sorted = false;
+  if (sorted) return { values, vectors, residuals };
+  const perm = Array.from({ length: m }, (_, j) => j).sort((a, b) => values[a] - values[b] || a - b);
+  const v = new Float64Array(m);
+  const x = new Float64Array(m * n);
+  const r = new Float64Array(m);
+  perm.forEach((from, to) => {
+    v[to] = values[from];
+    r[to] = residuals[from];
+    x.set(vectors.subarray(from * n, (from + 1) * n), to * n);
+  });
+  return { values: v, vectors: x, residuals: r };
 }
 
 function countError(count: number, finite: number, n: number): ArgumentError {
@@ -379,10 +414,11 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
   let vectors: Float64Array;
   let sturm: SturmCheck | undefined;
   let shiftUsed: number;
+  let rayleigh: boolean | undefined;
   if (o.range) {
     ({ values, vectors, sturm, shiftUsed } = solveRange(run, o.range));
   } else {
-    ({ values, vectors, sturm, shiftUsed } = o.near !== undefined ? solveNear(run, o.near, o.count) : solveLowest(run, o.count));
+    ({ values, vectors, sturm, shiftUsed, rayleigh } = o.near !== undefined ? solveNear(run, o.near, o.count) : solveLowest(run, o.count));
   }
   const tv = performance.now();
   o.onProgress?.('verify', 0);
@@ -399,7 +435,7 @@ function solveSparse(K: SymmetricCsc, M: SymmetricCsc, o: Resolved, method: 'lan
       iterationMs: run.iterationMs,
       verifyMs: verifyMs + run.verifyMs,
       totalMs: performance.now() - t0,
-  }));
+  }), rayleigh === true);
   o.onProgress?.('verify', 1);
   return result;
 }
@@ -409,14 +445,20 @@ interface Found {
   vectors: Float64Array;
   sturm?: SturmCheck;
   shiftUsed: number;
+  /** The values are a Lanczos run's σ + 1/θ: the checks replace them by Rayleigh quotients. */
+  rayleigh?: boolean;
 }
 
 /**
  * One method run for the `want` pairs nearest σ, kept M-orthogonal to the pool; the pool is
  * then extended and Rayleigh–Ritz'd with K and M (ritz.ts), which leaves it ascending and
- * M-orthonormal. Returns whether the Krylov space was exhausted.
+ * M-orthonormal. With `projectFirstRun` false, a first Lanczos run is taken as it comes: its
+ * vectors are Ritz vectors of one fully reorthogonalized basis (M-orthonormal to round-off,
+ * ascending), and the caller's checks replace its values by Rayleigh quotients from the products
+ * with K they make anyway (verify.ts rayleighModeChecks), which saves the projection's own.
+ * Returns whether the Krylov space was exhausted.
  */
-function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: number, fixed?: { x: Float64Array; m: number }): boolean {
+function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: number, fixed?: { x: Float64Array; m: number }, projectFirstRun = true): boolean {
   const n = run.pencil.n;
   const o = run.o;
   const t = performance.now();
@@ -493,8 +535,14 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
     x.set(newX.subarray(0, n * p), n * m0);
     mx.set(newMX.subarray(0, n * p), n * m0);
   }
-  // M·x is not rotated with the vectors: only a later merge reads it, and that recomputes it.
-  pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m), false);
+  if (m0 === 0 && run.method === 'lanczos' && !projectFirstRun) {
+    pool.values = newValues;
+    pool.projected = false;
+  } else {
+    // M·x is not rotated with the vectors: only a later merge reads it, and that recomputes it.
+    pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m), false);
+    pool.projected = true;
+  }
   pool.x = x;
   pool.mx = mx;
   pool.m = m;
@@ -503,7 +551,7 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
 }
 
 function emptyPool(): Pool {
-  return { m: 0, values: new Float64Array(0), x: new Float64Array(0), mx: new Float64Array(0) };
+  return { m: 0, values: new Float64Array(0), x: new Float64Array(0), mx: new Float64Array(0), projected: true };
 }
 
 function operatorsAt(
@@ -619,7 +667,7 @@ function solveLowest(run: Run, count: number): Found {
       inv = again.inv;
       factor = again.factor;
     }
-    const exhausted = extend(run, pool, inv, shift, want);
+    const exhausted = extend(run, pool, inv, shift, want, undefined, false);
     if (pool.m < count) {
       if (exhausted) throw countError(count, pool.m, pencil.n);
       want = count - pool.m;
@@ -644,7 +692,7 @@ function solveLowest(run: Run, count: number): Found {
   if (pool.m < count) throw shortOfModes(run, pool.m, count);
   // A view, not a copy: the pool's buffer is the iteration's, free now, and a copy would add
   // count · n values to the solve's peak memory.
-  return { values: pool.values.slice(0, count), vectors: pool.x.subarray(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+  return { values: pool.values.slice(0, count), vectors: pool.x.subarray(0, count * pencil.n), ...(sturm ? { sturm } : {}), shiftUsed: shift, rayleigh: !pool.projected };
 }
 
 /** The `count` modes nearest a target. */
@@ -656,7 +704,7 @@ function solveNear(run: Run, target: number, count: number): Found {
   let sturm: SturmCheck | undefined;
   let first = 0;
   for (;;) {
-    const exhausted = extend(run, pool, inv, shift, want);
+    const exhausted = extend(run, pool, inv, shift, want, undefined, false);
     if (pool.m < count) {
       if (exhausted) throw countError(count, pool.m, pencil.n);
       want = count - pool.m;
@@ -676,7 +724,7 @@ function solveNear(run: Run, target: number, count: number): Found {
   }
   if (pool.m < count) throw shortOfModes(run, pool.m, count);
   const n = pencil.n;
-  return { values: pool.values.slice(first, first + count), vectors: pool.x.subarray(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift };
+  return { values: pool.values.slice(first, first + count), vectors: pool.x.subarray(first * n, (first + count) * n), ...(sturm ? { sturm } : {}), shiftUsed: shift, rayleigh: !pool.projected };
 }
 
 /** Sturm counts at both ends of a range, as a SturmCheck of `found` modes. */
