@@ -405,30 +405,3 @@ export class SeededRandom {
     for (let i = 0; i < v.length; i++) v[i] = this.next();
   }
 }
-
-/**
- * y ← A·x for a symmetric matrix stored by its lower triangle in CSC (SymmetricCsc): the same
- * sums in the same order as `symmetricMultiply` of the sparse layer (so the same bits), with the
- * diagonal entry — first in its column when stored — taken out of the inner loop, which then
- * runs without a branch. x, y of length n, not aliased.
- */
-export function lowerSymmetricProduct(n: number, colPtr: Int32Array, rowIdx: Int32Array, values: Float64Array, x: Float64Array, y: Float64Array): void {
-  y.fill(0, 0, n);
-  for (let j = 0; j < n; j++) {
-    const xj = x[j];
-    let p = colPtr[j];
-    const end = colPtr[j + 1];
-    let s = 0;
-    if (p < end && rowIdx[p] === j) {
-      s = values[p] * xj;
-      p++;
-    }
-    for (; p < end; p++) {
-      const i = rowIdx[p];
-      const v = values[p];
-      y[i] += v * xj;
-      s += v * x[i];
-    }
-    y[j] += s;
-  }
-}

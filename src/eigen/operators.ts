@@ -10,7 +10,6 @@
 import type { Operator } from '../linalg/operator';
 import type { LdltFactor } from '../linalg/ldlt/types';
 import { symmetricMultiply, type SymmetricCsc } from '../linalg/sparse/symmetric';
-import { lowerSymmetricProduct } from './kernels';
 
 /** An operator that can also act on k vectors at once, column-major n × k. */
 export interface BlockOperator extends Operator {
@@ -25,16 +24,16 @@ export interface BlockOperator extends Operator {
  * @param m - A, n × n symmetric, lower-triangle CSC
  */
 export function matrixOperator(m: SymmetricCsc): BlockOperator {
-  const { n, colPtr, rowIdx, values } = m;
+  const n = m.n;
   const op: BlockOperator = {
     n,
     applications: 0,
     apply(x: Float64Array, y: Float64Array): void {
-      lowerSymmetricProduct(n, colPtr, rowIdx, values, x, y);
+      symmetricMultiply(m, x, y);
       op.applications++;
     },
     applyMany(x: Float64Array, y: Float64Array, k: number): void {
-      for (let c = 0; c < k; c++) lowerSymmetricProduct(n, colPtr, rowIdx, values, x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
+      for (let c = 0; c < k; c++) symmetricMultiply(m, x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
       op.applications += k;
     },
   };

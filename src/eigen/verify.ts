@@ -6,8 +6,8 @@
 import { AbstractMatrix } from 'ml-matrix';
 import { ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
-import type { SymmetricCsc } from '../linalg/sparse/symmetric';
-import { dot, dotColumns, lowerSymmetricProduct } from './kernels';
+import { symmetricMultiply, type SymmetricCsc } from '../linalg/sparse/symmetric';
+import { dot, dotColumns } from './kernels';
 import type { DenseSymmetric } from './dense/input';
 
 /** A symmetric matrix in any form the checks accept. */
@@ -30,7 +30,7 @@ function flatOf(a: AbstractMatrix): DenseSymmetric {
 
 /** Wraps any operand as an Operator (y ← A x), converting ml-matrix once. */
 export function asOperator(a: SymmetricOperand): Operator {
-  if (isCsc(a)) return { n: a.n, apply: (x, y) => lowerSymmetricProduct(a.n, a.colPtr, a.rowIdx, a.values, x, y) };
+  if (isCsc(a)) return { n: a.n, apply: (x, y) => symmetricMultiply(a, x, y) };
   if (AbstractMatrix.isMatrix(a)) return asOperator(flatOf(a));
   if (isDense(a)) {
     const { n, data } = a;

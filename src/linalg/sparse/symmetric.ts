@@ -129,21 +129,28 @@ export class CooBuilder {
   }
 }
 
-/** y ← A·x for a symmetric lower-stored A; x, y of length n, not aliased. */
+/**
+ * y ← A·x for a symmetric lower-stored A; x, y of length ≥ n, not aliased. Rows are ascending
+ * within a column, so a stored diagonal entry comes first: it is taken out of the inner loop,
+ * which then runs without a branch (the product of every Krylov step of the eigensolvers).
+ */
 export function symmetricMultiply(a: SymmetricCsc, x: Float64Array, y: Float64Array): void {
   const { n, colPtr, rowIdx, values } = a;
-  y.fill(0);
+  y.fill(0, 0, n);
   for (let j = 0; j < n; j++) {
     const xj = x[j];
+    let p = colPtr[j];
+    const end = colPtr[j + 1];
     let s = 0;
-    for (let p = colPtr[j]; p < colPtr[j + 1]; p++) {
+    if (p < end && rowIdx[p] === j) {
+      s = values[p] * xj;
+      p++;
+    }
+    for (; p < end; p++) {
       const i = rowIdx[p];
       const v = values[p];
-      if (i === j) s += v * xj;
-      else {
-        y[i] += v * xj;
-        s += v * x[i];
-      }
+      y[i] += v * xj;
+      s += v * x[i];
     }
     y[j] += s;
   }
