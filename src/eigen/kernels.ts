@@ -4,6 +4,7 @@
  * per pass so that each load of the vector serves several dot products or updates (a level-2
  * BLAS blocking, as in GEMV). None of these allocates.
  */
+import { FULL, gemmSubNT } from '../linalg/ldlt/kernels';
 
 /**
  * xᵀ y over the first n entries.
@@ -167,9 +168,11 @@ export function subtractColumns(v: Float64Array, n: number, c0: number, c1: numb
 
 /**
  * In place: V[:, c0 .. c0+k) ← V[:, c0 .. c0+m) · S, S an m × k column-major matrix (leading
- * dimension ldS), k ≤ m. Rows are processed in blocks copied (transposed, row-major) to `tmp`
- * first, so the result may overwrite its own input; each block is then a small GEMM with a
- * 4-row × 4-column register block (16 accumulators, 8 loads per 16 multiply-adds).
+ * dimension ldS), k ≤ m. Rows are processed in blocks copied (transposed, row-major, negated)
+ * to `tmp` first, so the result may overwrite its own input; each block is then the factor's
+ * register-blocked product (linalg/ldlt/kernels gemmSubNT): the zeroed output block, read as the
+ * row-major k × rows matrix Vᵀ, less Sᵀ·(−tmp)ᵀ. Every output is one sequential sum over the m
+ * inputs (negation is exact, so the bits are those of the plain product).
  * @param v - basis, column-major n × (≥ c0 + m)
  * @param tmp - work buffer of length ≥ m · rowBlock (rowBlock = ⌊tmp.length / m⌋, at least 1;
  *   256 rows measured fastest at n ≈ 84,000, m = 41)
@@ -187,136 +190,13 @@ export function combineColumnsInPlace(
   const rb = Math.max(1, Math.floor(tmp.length / m));
   for (let r0 = 0; r0 < n; r0 += rb) {
     const b = Math.min(n, r0 + rb) - r0;
-    // Gather rows r0 .. r0+b of the m input columns, row-major b × m.
+    // Rows r0 .. r0+b of the m input columns, negated, row-major b × m.
     for (let i = 0; i < m; i++) {
       const src = (c0 + i) * n + r0;
-      for (let r = 0; r < b; r++) tmp[r * m + i] = v[src + r];
+      for (let r = 0; r < b; r++) tmp[r * m + i] = -v[src + r];
     }
-    let r = 0;
-    // 4 rows × 4 columns: 8 loads for 16 multiply-adds (every output is still one sequential sum).
-    for (; r + 4 <= b; r += 4) {
-      const t0 = r * m;
-      const t1 = t0 + m;
-      const t2 = t1 + m;
-      const t3 = t2 + m;
-      let c = 0;
-      for (; c + 4 <= k; c += 4) {
-        const s0 = c * ldS;
-        const s1 = s0 + ldS;
-        const s2 = s1 + ldS;
-        const s3 = s2 + ldS;
-        let a00 = 0, a01 = 0, a02 = 0, a03 = 0;
-        let a10 = 0, a11 = 0, a12 = 0, a13 = 0;
-        let a20 = 0, a21 = 0, a22 = 0, a23 = 0;
-        let a30 = 0, a31 = 0, a32 = 0, a33 = 0;
-        for (let i = 0; i < m; i++) {
-          const x0 = tmp[t0 + i];
-          const x1 = tmp[t1 + i];
-          const x2 = tmp[t2 + i];
-          const x3 = tmp[t3 + i];
-          const y0 = s[s0 + i];
-          const y1 = s[s1 + i];
-          const y2 = s[s2 + i];
-          const y3 = s[s3 + i];
-          a00 += x0 * y0; a01 += x0 * y1; a02 += x0 * y2; a03 += x0 * y3;
-          a10 += x1 * y0; a11 += x1 * y1; a12 += x1 * y2; a13 += x1 * y3;
-          a20 += x2 * y0; a21 += x2 * y1; a22 += x2 * y2; a23 += x2 * y3;
-          a30 += x3 * y0; a31 += x3 * y1; a32 += x3 * y2; a33 += x3 * y3;
-        }
-        const o = (c0 + c) * n + r0 + r;
-        v[o] = a00; v[o + 1] = a10; v[o + 2] = a20; v[o + 3] = a30;
-        const o1 = o + n;
-        v[o1] = a01; v[o1 + 1] = a11; v[o1 + 2] = a21; v[o1 + 3] = a31;
-        const o2 = o1 + n;
-        v[o2] = a02; v[o2 + 1] = a12; v[o2 + 2] = a22; v[o2 + 3] = a32;
-        const o3 = o2 + n;
-        v[o3] = a03; v[o3 + 1] = a13; v[o3 + 2] = a23; v[o3 + 3] = a33;
-      }
-      for (; c < k; c++) {
-        const s0 = c * ldS;
-        let a0 = 0;
-        let a1 = 0;
-        let a2 = 0;
-        let a3 = 0;
-        for (let i = 0; i < m; i++) {
-          const y = s[s0 + i];
-          a0 += tmp[t0 + i] * y;
-          a1 += tmp[t1 + i] * y;
-          a2 += tmp[t2 + i] * y;
-          a3 += tmp[t3 + i] * y;
-        }
-        const o = (c0 + c) * n + r0 + r;
-        v[o] = a0;
-        v[o + 1] = a1;
-        v[o + 2] = a2;
-        v[o + 3] = a3;
-      }
-    }
-    for (; r + 2 <= b; r += 2) {
-      const t0 = r * m;
-      const t1 = t0 + m;
-      let c = 0;
-      for (; c + 4 <= k; c += 4) {
-        const s0 = c * ldS;
-        const s1 = s0 + ldS;
-        const s2 = s1 + ldS;
-        const s3 = s2 + ldS;
-        let a00 = 0;
-        let a01 = 0;
-        let a02 = 0;
-        let a03 = 0;
-        let a10 = 0;
-        let a11 = 0;
-        let a12 = 0;
-        let a13 = 0;
-        for (let i = 0; i < m; i++) {
-          const x0 = tmp[t0 + i];
-          const x1 = tmp[t1 + i];
-          const y0 = s[s0 + i];
-          const y1 = s[s1 + i];
-          const y2 = s[s2 + i];
-          const y3 = s[s3 + i];
-          a00 += x0 * y0;
-          a01 += x0 * y1;
-          a02 += x0 * y2;
-          a03 += x0 * y3;
-          a10 += x1 * y0;
-          a11 += x1 * y1;
-          a12 += x1 * y2;
-          a13 += x1 * y3;
-        }
-        const o = (c0 + c) * n + r0 + r;
-        v[o] = a00;
-        v[o + 1] = a10;
-        v[o + n] = a01;
-        v[o + n + 1] = a11;
-        v[o + 2 * n] = a02;
-        v[o + 2 * n + 1] = a12;
-        v[o + 3 * n] = a03;
-        v[o + 3 * n + 1] = a13;
-      }
-      for (; c < k; c++) {
-        const s0 = c * ldS;
-        let a0 = 0;
-        let a1 = 0;
-        for (let i = 0; i < m; i++) {
-          a0 += tmp[t0 + i] * s[s0 + i];
-          a1 += tmp[t1 + i] * s[s0 + i];
-        }
-        const o = (c0 + c) * n + r0 + r;
-        v[o] = a0;
-        v[o + 1] = a1;
-      }
-    }
-    for (; r < b; r++) {
-      const t0 = r * m;
-      for (let c = 0; c < k; c++) {
-        const s0 = c * ldS;
-        let a0 = 0;
-        for (let i = 0; i < m; i++) a0 += tmp[t0 + i] * s[s0 + i];
-        v[(c0 + c) * n + r0 + r] = a0;
-      }
-    }
+    for (let c = 0; c < k; c++) v.fill(0, (c0 + c) * n + r0, (c0 + c) * n + r0 + b);
+    gemmSubNT(k, b, m, s, 0, ldS, tmp, 0, m, v, c0 * n + r0, n, FULL);
   }
 }
 
