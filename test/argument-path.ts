@@ -1,4 +1,4 @@
-/** Test helpers: the ArgumentError a call throws, and its path. */
+/** Test helpers: the error a call throws (an ArgumentError unless told), and its path. */
 import { expect } from 'vitest';
 import { ArgumentError } from '../src/errors';
 
@@ -13,13 +13,16 @@ export function pathOf(f: () => unknown): string {
   return 'no error';
 }
 
-/** Runs f; expects it to throw an ArgumentError and returns it (fails the test when f returns). */
-export function thrown(f: () => unknown): ArgumentError {
+/**
+ * Runs f; expects it to throw an error of `type` (ArgumentError unless given) and returns it
+ * (fails the test when f returns).
+ */
+export function thrown<E extends Error = ArgumentError>(f: () => unknown, type: abstract new (...args: never[]) => E = ArgumentError as unknown as abstract new (...args: never[]) => E): E {
   try {
     f();
   } catch (e) {
-    expect(e).toBeInstanceOf(ArgumentError);
-    return e as ArgumentError;
+    expect(e).toBeInstanceOf(type);
+    return e as E;
   }
-  throw new Error('expected an ArgumentError');
+  throw new Error(`expected a ${type.name}`);
 }

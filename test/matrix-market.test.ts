@@ -4,6 +4,7 @@ import { writeDofMap, DOF_MAP_DEFAULTS } from '../src/io/matrix-market-dofs';
 import { ArgumentError, MatrixMarketError } from '../src/errors';
 import { CooBuilder, toDenseArray, type SymmetricCsc } from '../src/linalg/sparse/symmetric';
 import { mulberry32 as rng } from '../src/linalg/random';
+import { thrown } from './argument-path';
 
 // Format reference throughout: Boisvert, Pozo, Remington, "The Matrix Market Exchange Formats:
 // Initial Design", NISTIR 5935 (1996): banner "%%MatrixMarket matrix <format> <field>
@@ -11,15 +12,7 @@ import { mulberry32 as rng } from '../src/linalg/random';
 // triangle.
 
 /** Catches the MatrixMarketError of fn, failing if another error (or none) is thrown. */
-function mmError(fn: () => unknown): MatrixMarketError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(MatrixMarketError);
-    return e as MatrixMarketError;
-  }
-  throw new Error('expected a MatrixMarketError');
-}
+const mmError = (fn: () => unknown): MatrixMarketError => thrown(fn, MatrixMarketError);
 
 const dense = (a: SymmetricCsc) => Array.from(toDenseArray(a));
 
