@@ -70,8 +70,12 @@ export interface SupernodalSymbolic extends SymbolicFactor {
   readonly rowPtr: Int32Array;
   /** Row structures (permuted indices), concatenated. */
   readonly rows: Int32Array;
-  /** Offsets of the dense blocks in the factor's value array, length supernodes + 1. */
-  readonly lxPtr: Float64Array;
+  /**
+   * Offsets of the dense blocks in the factor's value array, length supernodes + 1 (32-bit:
+   * analyse refuses a factor of 2³¹ entries or more, so the solves' index arithmetic stays in
+   * integers).
+   */
+  readonly lxPtr: Int32Array;
   /** lxPos[p] = where the p-th value of the input pattern goes in the factor's value array. */
   readonly lxPos: Int32Array;
   /** diagPos[j] = position of A_jj (original numbering) in the input values, −1 if not stored. */
@@ -453,10 +457,10 @@ export function analyse(pattern: SymmetricCsc, options: SupernodalAnalyseOptions
   const ns = superStart.length - 1;
   const superOf = new Int32Array(n);
   const rowPtr = new Int32Array(ns + 1);
-  const lxPtr = new Float64Array(ns + 1);
+  const lxPtr = new Int32Array(ns + 1);
   const max = supernodeSizes(superStart, cc, superOf, rowPtr, lxPtr);
-  if (lxPtr[ns] > 0x7fffffff) {
-    throw new ArgumentError(`the factor would hold ${lxPtr[ns]} entries, more than 2³¹ − 1; use a fill-reducing ordering ('nd' or 'amd') or a smaller model`, 'pattern');
+  if (max.entries > 0x7fffffff) {
+    throw new ArgumentError(`the factor would hold ${max.entries} entries, more than 2³¹ − 1; use a fill-reducing ordering ('nd' or 'amd') or a smaller model`, 'pattern');
   }
 
   // --- Row structures and where each input value lands in the factor's blocks. -------------
@@ -640,11 +644,13 @@ function relaxedStarts(fStart: Int32Array, parent: Int32Array, cc: Int32Array, m
 
 /**
  * Fills superOf (supernode of each column), rowPtr (rows of each supernode: its columns plus
- * the off-diagonal count of its last one) and lxPtr (offsets of the dense blocks).
- * @returns the widest, tallest and largest block
+ * the off-diagonal count of its last one) and lxPtr (offsets of the dense blocks; meaningless
+ * when the total reaches 2³¹, which the caller refuses).
+ * @returns the widest, tallest and largest block, and the factor's total entries
  */
-function supernodeSizes(superStart: Int32Array, cc: Int32Array, superOf: Int32Array, rowPtr: Int32Array, lxPtr: Float64Array): { cols: number; rows: number; block: number } {
+function supernodeSizes(superStart: Int32Array, cc: Int32Array, superOf: Int32Array, rowPtr: Int32Array, lxPtr: Int32Array): { cols: number; rows: number; block: number; entries: number } {
   const ns = superStart.length - 1;
+  let entries = 0;
   let cols = 0;
   let rows = 0;
   let block = 0;
@@ -655,12 +661,13 @@ function supernodeSizes(superStart: Int32Array, cc: Int32Array, superOf: Int32Ar
     const nc = l - f + 1;
     const nr = nc + cc[l] - 1;
     rowPtr[s + 1] = rowPtr[s] + nr;
-    lxPtr[s + 1] = lxPtr[s] + nr * nc;
+    entries += nr * nc;
+    lxPtr[s + 1] = entries;
     if (nc > cols) cols = nc;
     if (nr > rows) rows = nr;
     if (nr * nc > block) block = nr * nc;
   }
-  return { cols, rows, block };
+  return { cols, rows, block, entries };
 }
 
 /**
@@ -748,7 +755,7 @@ function sortRows(rows: Int32Array, from: number, to: number): void {
  * lxPos[p] = where the p-th value of the input pattern goes in the factor's value array.
  * @param rel - workspace of length n: rel[i] = local row of row i in the current supernode
  */
-function valuePositions(superStart: Int32Array, rowPtr: Int32Array, rows: Int32Array, lxPtr: Float64Array, lPtr: Int32Array, lIdx: Int32Array, lOrig: Int32Array, rel: Int32Array): Int32Array {
+function valuePositions(superStart: Int32Array, rowPtr: Int32Array, rows: Int32Array, lxPtr: Int32Array, lPtr: Int32Array, lIdx: Int32Array, lOrig: Int32Array, rel: Int32Array): Int32Array {
   const ns = superStart.length - 1;
   const lxPos = new Int32Array(lOrig.length);
   for (let s = 0; s < ns; s++) {

@@ -35,9 +35,7 @@ class SupernodalFactor implements LdltFactor {
     this.superStart = sym.superStart;
     this.rowPtr = sym.rowPtr;
     this.rows = sym.rows;
-    // Block offsets as 32-bit integers (analyse refuses factors of 2³¹ entries or more), so that
-    // the solves' index arithmetic stays in integers.
-    this.lxPtr = Int32Array.from(sym.lxPtr);
+    this.lxPtr = sym.lxPtr;
     this.lx = lx;
     this.d = d;
     this.negativePivots = negativePivots;
@@ -135,7 +133,7 @@ export function factorizeReusing(symbolic: SymbolicFactor, values: Float64Array,
   }
   const n = sym.n;
   const ns = sym.supernodes;
-  const lxPtr = Int32Array.from(sym.lxPtr); // integer offsets, as in the factor's solves
+  const lxPtr = sym.lxPtr;
 
   // --- Scatter A into the supernode blocks ------------------------------------------------
   const lx = storage !== undefined && storage.length === lxPtr[ns] ? storage.fill(0) : new Float64Array(lxPtr[ns]);
