@@ -36,7 +36,8 @@ describe('blockElimination', () => {
     const a = buildingPattern(3, 3, 4);
     const { c, order, e } = exactBlocks(a);
     expect(c.graph.n).toBe(a.n / 6); // every free node's 6 DOFs are indistinguishable
-    // Independent count (row subtrees over the full pattern, symbolicFill) of the expanded order.
+    // Count over the full pattern of the expanded order (symbolicFill: the same row-subtree
+    // routine on the uncompressed graph; the dense reference is the test above).
     const ref = symbolicFill(a, expand(c, order));
     expect(e.nnzL).toBe(ref.nnzL);
     expect(e.flops).toBe(ref.flops);

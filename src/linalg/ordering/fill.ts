@@ -20,53 +20,9 @@ import { Scratch } from './scratch';
  */
 export function symbolicFill(pattern: SymmetricCsc, perm: Int32Array): { nnzL: number; flops: number } {
   const g = adjacency(pattern);
-  const n = g.n;
-  const pinv = checkedInverse(perm, n);
-  const { xadj, adjncy } = g;
-  const parent = new Int32Array(n);
-  const ancestor = new Int32Array(n);
-  // --- Elimination tree of P A Pᵀ (cs_etree): row k of the permuted matrix is the original
-  // row perm[k]; its entries left of the diagonal are the neighbours with pinv < k.
-  for (let k = 0; k < n; k++) {
-    parent[k] = -1;
-    ancestor[k] = -1;
-    const v = perm[k];
-    for (let p = xadj[v]; p < xadj[v + 1]; p++) {
-      let i = pinv[adjncy[p]];
-      if (i >= k) continue;
-      while (i !== -1 && i < k) {
-        const inext = ancestor[i];
-        ancestor[i] = k;
-        if (inext === -1) parent[i] = k;
-        i = inext;
-      }
-    }
-  }
-  // --- Row subtrees: row k of L has a nonzero in column j for every j on the tree paths from
-  // the entries of row k of A up to k (Davis 2006, Theorem 4.5).
-  const count = new Float64Array(n);
-  const mark = ancestor; // reuse
-  mark.fill(-1);
-  for (let k = 0; k < n; k++) {
-    mark[k] = k;
-    const v = perm[k];
-    for (let p = xadj[v]; p < xadj[v + 1]; p++) {
-      let j = pinv[adjncy[p]];
-      if (j >= k) continue;
-      while (mark[j] !== k) {
-        count[j]++;
-        mark[j] = k;
-        j = parent[j];
-      }
-    }
-  }
-  let nnzL = 0;
-  let flops = 0;
-  for (let j = 0; j < n; j++) {
-    const c = count[j];
-    nnzL += c;
-    flops += c * (c + 2);
-  }
+  checkedInverse(perm, g.n); // validates perm
+  // Each unknown a block of its own (weight 1): the block elimination is the plain one.
+  const { nnzL, flops } = blockElimination(g, new Int32Array(g.n).fill(1), perm);
   return { nnzL, flops };
 }
 
