@@ -213,7 +213,7 @@ describe('lanczos and subspaceIteration on their own', () => {
   const pencil = new ShiftedPencil(K, M);
 
   it('defaults are the documented values', () => {
-    expect(LANCZOS_DEFAULTS).toEqual({ count: 20, shift: 0, tolerance: 1e-12, basisSize: 0, maxRestarts: 500, seed: 1, lockedCount: 0 });
+    expect(LANCZOS_DEFAULTS).toEqual({ count: 20, shift: 0, tolerance: 1e-12, basisSize: 0, maxRestarts: 500, seed: 1, lockedCount: 0, massVectors: true });
     expect(SUBSPACE_DEFAULTS).toEqual({ count: 20, shift: 0, subspaceSize: 0, tolerance: 1e-11, normK: 0, maxIterations: 300, seed: 1, lockedCount: 0 });
   });
 

@@ -90,4 +90,21 @@ describe('lanczos reorthogonalization (conditional second pass)', () => {
     const basis = 2 * 12 + 1;
     expect(orthError(r.vectors, r.massVectors, n, 12)).toBeLessThan(basis * ORTHOGONALITY_SLACK);
   });
+
+  it('massVectors: false normalizes from the basis (1 + g²) and returns the same vectors as the products do', () => {
+    const n = 200;
+    const { K, M } = springChain(n, 1, 1, 'fixed-free');
+    const { factor, shift } = new ShiftedPencil(K, M).factorAt(0);
+    const opts = { count: 8, shift, basisSize: 12 };
+    const withMass = lanczos(inverseOperator(factor), matrixOperator(M), opts);
+    const without = lanczos(inverseOperator(factor), matrixOperator(M), { ...opts, massVectors: false });
+    expect(without.massVectors.length).toBe(0);
+    expect(Array.from(without.eigenvalues)).toEqual(Array.from(withMass.eigenvalues));
+    let diff = 0;
+    for (let q = 0; q < 8 * n; q++) diff = Math.max(diff, Math.abs(without.vectors[q] - withMass.vectors[q]));
+    expect(diff).toBeLessThan(1e-12);
+    const mx = new Float64Array(8 * n);
+    for (let c = 0; c < 8; c++) symmetricMultiply(M, without.vectors.subarray(c * n, (c + 1) * n), mx.subarray(c * n, (c + 1) * n));
+    expect(orthError(without.vectors, mx, n, 8)).toBeLessThan(1e-12);
+  });
 });

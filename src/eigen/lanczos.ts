@@ -74,6 +74,12 @@ export interface LanczosOptions {
   onProgress?: ProgressCallback;
   /** Checked at every Lanczos step; when aborted, AbortedError is thrown. */
   signal?: AbortSignal;
+  /**
+   * Return M times the vectors (one mass product each). Without them the vectors are
+   * M-normalized from the basis itself: a purified Ritz vector V s + g v (s a unit vector, v the
+   * residual vector, all M-orthonormal) has ‖·‖²_M = 1 + g², with no product. @defaultValue true
+   */
+  massVectors?: boolean;
 }
 
 /** Defaults of {@link LanczosOptions}. */
@@ -85,6 +91,7 @@ export const LANCZOS_DEFAULTS = {
   maxRestarts: 500,
   seed: 1,
   lockedCount: 0,
+  massVectors: true,
 } as const;
 
 export interface LanczosResult {
@@ -92,7 +99,10 @@ export interface LanczosResult {
   readonly eigenvalues: Float64Array;
   /** Ritz vectors, column-major n × m, M-normalized and purified (a view into the solver's basis buffer). */
   readonly vectors: Float64Array;
-  /** M times the vectors, column-major n × m (may be a view into the same buffer as `vectors`). */
+  /**
+   * M times the vectors, column-major n × m (may be a view into the same buffer as `vectors`);
+   * empty when `options.massVectors` is false.
+   */
   readonly massVectors: Float64Array;
   /** Estimated ‖OP x − θ x‖_M / |θ| per returned pair. */
   readonly errorEstimates: Float64Array;
@@ -480,16 +490,23 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   }
   for (let c = 0; c < p; c++) {
     const x = vectors.subarray(c * n, (c + 1) * n);
-    const mx = massVectors.subarray(c * n, (c + 1) * n);
-    mass.apply(x, mx);
-    const inv = 1 / Math.sqrt(dot(x, mx, n));
-    scaleInto(x, x, inv, n);
-    scaleInto(mx, mx, inv, n);
+    if (o.massVectors) {
+      const mx = massVectors.subarray(c * n, (c + 1) * n);
+      mass.apply(x, mx);
+      const inv = 1 / Math.sqrt(dot(x, mx, n));
+      scaleInto(x, x, inv, n);
+      scaleInto(mx, mx, inv, n);
+    } else {
+      // The error estimate is |g|, the purification's coefficient (zero when not purified).
+      const g = errorEstimates[c];
+      const inv = 1 / Math.sqrt(1 + g * g);
+      if (inv !== 1) scaleInto(x, x, inv, n);
+    }
   }
   return {
     eigenvalues,
     vectors,
-    massVectors,
+    massVectors: o.massVectors ? massVectors : new Float64Array(0),
     errorEstimates,
     converged: nl + nconv >= nev || (exhausted && p >= nev),
     exhausted,

@@ -136,14 +136,13 @@ export const SOLVE_DEFAULTS = {
 const METHODS: readonly SolveMethod[] = ['auto', 'dense', 'jacobi', 'cholesky', 'lanczos', 'subspace'];
 
 /**
- * Pairs found so far: ascending λ and M-orthonormal X, column-major n × m; mx is the storage
- * of M times the basis before the last projection (not M·X: a merge recomputes that).
+ * Pairs found so far: ascending λ and M-orthonormal X, column-major n × m (a merge computes
+ * M·X afresh when it needs it).
  */
 interface Pool {
   m: number;
   values: Float64Array;
   x: Float64Array;
-  mx: Float64Array;
   /**
    * False while the pool is one Lanczos run taken as it came (values σ + 1/θ, see extend's
    * `projectFirstRun`): the result's checks then replace them by Rayleigh quotients.
@@ -480,6 +479,9 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
     ...(o.signal ? { signal: o.signal } : {}),
     ...(o.tolerance !== undefined ? { tolerance: o.tolerance } : {}),
   };
+  // M·x of the new vectors is read only by the projection below: a first run taken as it comes
+  // skips those products.
+  const keepsFirstRun = pool.m === 0 && run.method === 'lanczos' && !projectFirstRun;
   let newValues: Float64Array;
   let newX: Float64Array;
   let newMX: Float64Array;
@@ -487,7 +489,7 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
   let converged: boolean;
   let convergedCount: number;
   if (run.method === 'lanczos') {
-    const r = lanczos(inv, run.mop, common);
+    const r = lanczos(inv, run.mop, keepsFirstRun ? { ...common, massVectors: false } : common);
     run.iterations += r.steps;
     run.restarts += r.restarts;
     newValues = r.eigenvalues;
@@ -521,37 +523,37 @@ function extend(run: Run, pool: Pool, inv: BlockOperator, sigma: number, want: n
   // The first run's vectors are used where the method left them (its own buffers, free now);
   // later runs are appended to a copy of the pool.
   let x: Float64Array;
-  let mx: Float64Array;
   if (m0 === 0) {
     x = newX.subarray(0, n * p);
-    mx = newMX.subarray(0, n * p);
   } else {
     x = new Float64Array(n * m);
-    mx = new Float64Array(n * m);
     x.set(pool.x.subarray(0, n * m0));
-    // The pool keeps M·x of its basis before the last projection (see below): take M times the
-    // pool's Ritz vectors afresh (a rerun after a Sturm count, rare).
-    run.mop.applyMany(pool.x, mx, m0);
     x.set(newX.subarray(0, n * p), n * m0);
-    mx.set(newMX.subarray(0, n * p), n * m0);
   }
-  if (m0 === 0 && run.method === 'lanczos' && !projectFirstRun) {
+  if (keepsFirstRun) {
     pool.values = newValues;
     pool.projected = false;
   } else {
-    // M·x is not rotated with the vectors: only a later merge reads it, and that recomputes it.
+    // M·x of the merged basis: the new vectors' from the method, the pool's afresh (a rerun
+    // after a Sturm count, rare). It is not rotated with the vectors: nothing reads it later.
+    let mx: Float64Array;
+    if (m0 === 0) mx = newMX.subarray(0, n * p);
+    else {
+      mx = new Float64Array(n * m);
+      run.mop.applyMany(pool.x, mx, m0);
+      mx.set(newMX.subarray(0, n * p), n * m0);
+    }
     pool.values = rayleighRitzOperator(x, run.kop, mx, n, m, new Float64Array(256 * m), false);
     pool.projected = true;
   }
   pool.x = x;
-  pool.mx = mx;
   pool.m = m;
   run.verifyMs += performance.now() - tr;
   return exhausted;
 }
 
 function emptyPool(): Pool {
-  return { m: 0, values: new Float64Array(0), x: new Float64Array(0), mx: new Float64Array(0), projected: true };
+  return { m: 0, values: new Float64Array(0), x: new Float64Array(0), projected: true };
 }
 
 function operatorsAt(
