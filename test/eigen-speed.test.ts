@@ -15,7 +15,7 @@ import { rayleighRitz, rayleighRitzOperator } from '../src/eigen/ritz';
 import { solve } from '../src/eigen/solve';
 import { modeChecks, orthogonalityError, residuals } from '../src/eigen/verify';
 import { ArgumentError } from '../src/errors';
-import { symmetricMultiply, toDenseArray } from '../src/linalg/sparse/symmetric';
+import { symmetricMultiply, symmetricMultiplyMany, toDenseArray } from '../src/linalg/sparse/symmetric';
 import { randomSparsePair, rng, springChain } from './eigen-sparse-helpers';
 
 /** Bitwise equality of two Float64Arrays. */
@@ -63,6 +63,36 @@ describe('sparse eigen kernels', () => {
       }
       symmetricMultiply(a, x, y2);
       expect(sameBits(y1, y2)).toBe(true);
+    }
+  });
+
+  it('symmetricMultiplyMany (four columns per pass) gives each column the bits of symmetricMultiply', () => {
+    const { K, M } = randomSparsePair(500, 6, 13);
+    // M without the diagonal entries of its even columns: columns with no stored diagonal too.
+    const colPtr = new Int32Array(M.n + 1);
+    const rows: number[] = [];
+    const vals: number[] = [];
+    for (let j = 0; j < M.n; j++) {
+      for (let p = M.colPtr[j]; p < M.colPtr[j + 1]; p++) {
+        if (M.rowIdx[p] === j && j % 2 === 0) continue;
+        rows.push(M.rowIdx[p]);
+        vals.push(M.values[p]);
+      }
+      colPtr[j + 1] = rows.length;
+    }
+    const holed = { n: M.n, colPtr, rowIdx: Int32Array.from(rows), values: Float64Array.from(vals) };
+    for (const a of [K, M, holed]) {
+      const n = a.n;
+      for (const k of [1, 3, 4, 5, 9]) {
+        const x = randomColumns(n, k, 17 + k);
+        const many = new Float64Array(n * k).fill(Number.NaN); // stale output must be overwritten
+        symmetricMultiplyMany(a, x, many, k);
+        const one = new Float64Array(n);
+        for (let c = 0; c < k; c++) {
+          symmetricMultiply(a, x.subarray(c * n, (c + 1) * n), one);
+          expect(sameBits(many.subarray(c * n, (c + 1) * n), one)).toBe(true);
+        }
+      }
     }
   });
 

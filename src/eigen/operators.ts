@@ -9,7 +9,7 @@
  */
 import type { Operator } from '../linalg/operator';
 import type { LdltFactor } from '../linalg/ldlt/types';
-import { symmetricMultiply, type SymmetricCsc } from '../linalg/sparse/symmetric';
+import { symmetricMultiply, symmetricMultiplyMany, type SymmetricCsc } from '../linalg/sparse/symmetric';
 
 /** An operator that can also act on k vectors at once, column-major n × k. */
 export interface BlockOperator extends Operator {
@@ -33,7 +33,7 @@ export function matrixOperator(m: SymmetricCsc): BlockOperator {
       op.applications++;
     },
     applyMany(x: Float64Array, y: Float64Array, k: number): void {
-      for (let c = 0; c < k; c++) symmetricMultiply(m, x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
+      symmetricMultiplyMany(m, x, y, k);
       op.applications += k;
     },
   };

@@ -6,7 +6,7 @@
 import { AbstractMatrix } from 'ml-matrix';
 import { ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
-import { symmetricMultiply, type SymmetricCsc } from '../linalg/sparse/symmetric';
+import { symmetricMultiply, symmetricMultiplyMany, type SymmetricCsc } from '../linalg/sparse/symmetric';
 import { dot, dotColumns } from './kernels';
 import type { DenseSymmetric } from './dense/input';
 
@@ -161,6 +161,15 @@ export function rayleighModeChecks(K: SymmetricOperand, M: SymmetricOperand, val
   return checkPairs(K, M, values, vectors, normK, 'rayleigh');
 }
 
+/** Modes per block product in the checks (symmetricMultiplyMany takes four columns per pass). */
+const CHECK_BLOCK = 4;
+
+/** Y ← A·X for k column-major vectors: one pass over a sparse A per four of them. */
+function multiplyBlock(a: SymmetricOperand, op: Operator, x: Float64Array, y: Float64Array, k: number, n: number): void {
+  if (isCsc(a)) symmetricMultiplyMany(a, x, y, k);
+  else for (let c = 0; c < k; c++) op.apply(x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
+}
+
 function checkPairs(
   K: SymmetricOperand,
   M: SymmetricOperand,
@@ -178,15 +187,25 @@ function checkPairs(
   const m = values.length;
   checkModes(n, vectors, m, 'vectors');
   const nk = normK ?? matrixNorm1(K);
-  const kx = new Float64Array(n);
-  const mx = new Float64Array(n);
+  // Modes go through the products CHECK_BLOCK at a time (one pass over a sparse K or M serves
+  // them all); each mode's checks then read its own columns.
+  const block = Math.min(CHECK_BLOCK, m);
+  const kxs = new Float64Array(n * block);
+  const mxs = new Float64Array(n * block);
   const h = new Float64Array(m);
   const out = new Float64Array(m);
   let worst = 0;
   for (let j = 0; j < m; j++) {
+    const q = j % block;
+    if (q === 0) {
+      const b = Math.min(block, m - j);
+      const xs = vectors.subarray(j * n, (j + b) * n);
+      multiplyBlock(K, kop, xs, kxs, b, n);
+      multiplyBlock(M, mop, xs, mxs, b, n);
+    }
     const x = vectors.subarray(j * n, (j + 1) * n);
-    kop.apply(x, kx);
-    mop.apply(x, mx);
+    const kx = kxs.subarray(q * n, (q + 1) * n);
+    const mx = mxs.subarray(q * n, (q + 1) * n);
     if (rayleigh) {
       const xmx = dot(x, mx, n);
       if (xmx > 0) values[j] = dot(x, kx, n) / xmx;

