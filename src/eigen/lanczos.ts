@@ -12,11 +12,12 @@
  *   Jensen 1987, "How to implement the spectral transformation", Math. Comp. 48, §4–5).
  * - Full reorthogonalization: the three-term step, then the new vector's M-inner products with
  *   the whole basis are measured (blocked dense kernels); when all are below
- *   ORTHOGONALITY_SLACK of its norm the vector is kept as it is, else one classical Gram–Schmidt
- *   pass removes them, and a second pass follows only when the DGKS test asks for it (Parlett,
- *   The Symmetric Eigenvalue Problem, §6.9 and §13.1; Daniel, Gragg, Kaufman & Stewart 1976;
- *   Giraud et al. 2005). Unlike partial reorthogonalization's estimates (Simon 1984), the
- *   products are computed, so every pair of basis vectors is known to be that orthogonal.
+ *   ORTHOGONALITY_BUDGET / (basis size) of its norm the vector is kept as it is, else one
+ *   classical Gram–Schmidt pass removes them, and a second pass follows only when the DGKS test
+ *   asks for it (Parlett, The Symmetric Eigenvalue Problem, §6.9 and §13.1; Daniel, Gragg,
+ *   Kaufman & Stewart 1976; Giraud et al. 2005). Unlike partial reorthogonalization's estimates
+ *   (Simon 1984), the products are computed, so every pair of basis vectors is known to be that
+ *   orthogonal.
  * - Thick restart: keep the k best Ritz vectors and continue from the residual vector; the
  *   projected matrix becomes an arrowhead plus a tridiagonal (Wu & Simon 2000, "Thick-restart
  *   Lanczos method for large symmetric eigenvalue problems", SIAM J. Matrix Anal. Appl. 22(2),
@@ -121,20 +122,22 @@ export interface LanczosResult {
   readonly secondPasses: number;
   /**
    * Lanczos steps whose new vector, after the three-term step, was measured M-orthogonal to the
-   * whole basis within ORTHOGONALITY_SLACK, so its subtraction and second mass product were skipped.
+   * whole basis within ORTHOGONALITY_BUDGET / (basis size), so its subtraction and second mass
+   * product were skipped.
    */
   readonly orthogonalSteps: number;
 }
 
 /**
- * A new Lanczos vector is kept without the Gram–Schmidt subtraction when its measured M-inner
- * product with every basis vector is at most this fraction of its M-norm. Basis vectors never
- * change after they are made (a restart rotates them by an orthogonal matrix), so every pair in
- * the basis then stays M-orthogonal within this bound, and the Ritz vectors within the 2-norm
- * of that error matrix, at most ncv times the bound (≈ 4e-12 for ncv = 41, against the 1e-10
- * the checks require). A step with larger products gets the full pass.
+ * Orthogonality a Lanczos basis of c columns may lose to skipped subtractions: a new vector is
+ * kept without its Gram–Schmidt subtraction when its measured M-inner product with every basis
+ * vector is at most ORTHOGONALITY_BUDGET / c of its M-norm. Basis vectors never change after they
+ * are made (a restart rotates them by an orthogonal matrix), so the basis's Gram matrix then
+ * differs from I by at most c · (budget / c) = budget in 2-norm (bounded by the Frobenius norm),
+ * and so do its Ritz vectors: a tenth of the 1e-10 the checks require. A step with larger
+ * products gets the full pass.
  */
-export const ORTHOGONALITY_SLACK = 1e-13;
+export const ORTHOGONALITY_BUDGET = 1e-11;
 
 /**
  * Shift-invert Lanczos: the `count` eigenpairs of K x = λ M x nearest σ.
@@ -167,6 +170,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
 
   // ---- workspace, sized once ----
   const cols = L + ncv + 1;
+  const slack = ORTHOGONALITY_BUDGET / cols; // see ORTHOGONALITY_BUDGET
   const V = new Float64Array(n * cols);
   const w = new Float64Array(n);
   let mw = new Float64Array(n); // M w before a Gram–Schmidt pass (trades places with mvNext when a step keeps w)
@@ -300,8 +304,8 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       // 1. the local step removes α v_j and β_{j−1} v_{j−1}, which carry nearly all of w when
       //    the Ritz values converge (not needed right after a restart: that step couples to
       //    every kept Ritz vector, so it goes straight to the full passes);
-      // 2. h = Vᵀ(M w); unless every |hᵢ| ≤ ORTHOGONALITY_SLACK · ‖w‖_M (then w is kept as it
-      //    is), one classical Gram–Schmidt pass over the whole basis, w −= V h;
+      // 2. h = Vᵀ(M w); unless every |hᵢ| ≤ slack · ‖w‖_M (ORTHOGONALITY_BUDGET; then w is kept
+      //    as it is), one classical Gram–Schmidt pass over the whole basis, w −= V h;
       // 3. a second pass only when the first removed more than half of ‖w‖²_M — the DGKS test
       //    with η = 1/√2 (Daniel, Gragg, Kaufman & Stewart 1976, Math. Comp. 30, §4; the test
       //    of ARPACK's dsaitr). Giraud, Langou, Rozložník & van den Eshof 2005 (Numer. Math.
@@ -325,16 +329,16 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
         dotColumns(V, n, 0, upto, pass === 0 ? mw : z, h); // z = M w after the previous pass
         if (pass === 0 && j > k) {
           // After the three-term step the coefficients h are the new vector's measured M-inner
-          // products with the whole basis. When every one is below ORTHOGONALITY_SLACK · ‖w‖_M,
-          // w is kept as it is: the subtraction would change it by less than that, and M w is
-          // already at hand (no second mass product).
+          // products with the whole basis. When every one is below slack · ‖w‖_M, w is kept as
+          // it is: the subtraction would change it by less than that, and M w is already at
+          // hand (no second mass product).
           let hmax = 0;
           for (let c = 0; c < upto; c++) {
             const a = Math.abs(h[c]);
             if (a > hmax) hmax = a;
           }
           const bb0 = dot(w, mw, n);
-          if (hmax <= ORTHOGONALITY_SLACK * Math.sqrt(bb0)) {
+          if (hmax <= slack * Math.sqrt(bb0)) {
             bb = bb0;
             const t = z;
             z = mw;
