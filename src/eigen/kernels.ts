@@ -28,6 +28,23 @@ export function axpy(y: Float64Array, x: Float64Array, a: number, n: number): vo
 }
 
 /**
+ * y ← y + a1·x1 + a2·x2 over the first n entries (one pass: the three-term step of Lanczos).
+ */
+export function axpy2(y: Float64Array, x1: Float64Array, a1: number, x2: Float64Array, a2: number, n: number): void {
+  for (let i = 0; i < n; i++) y[i] += a1 * x1[i] + a2 * x2[i];
+}
+
+/**
+ * x ← a·x and y ← a·y over the first n entries, in one pass.
+ */
+export function scaleBoth(x: Float64Array, y: Float64Array, a: number, n: number): void {
+  for (let i = 0; i < n; i++) {
+    x[i] *= a;
+    y[i] *= a;
+  }
+}
+
+/**
  * y ← a·x over the first n entries (y may be x).
  */
 export function scaleInto(y: Float64Array, x: Float64Array, a: number, n: number): void {

@@ -39,7 +39,7 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { Operator } from '../linalg/operator';
 import { AbortedError, ArgumentError } from '../errors';
-import { axpy, combineColumnsInPlace, dot, dotColumns, scaleInto, SeededRandom, subtractColumns } from './kernels';
+import { axpy, axpy2, combineColumnsInPlace, dot, dotColumns, scaleBoth, scaleInto, SeededRandom, subtractColumns } from './kernels';
 
 /** Progress report: phase name and fraction done in [0, 1]. */
 export type ProgressCallback = (phase: string, fraction: number) => void;
@@ -172,7 +172,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   const cols = L + ncv + 1;
   const slack = ORTHOGONALITY_BUDGET / cols; // see ORTHOGONALITY_BUDGET
   const V = new Float64Array(n * cols);
-  const w = new Float64Array(n);
+  const fresh = new Float64Array(n); // start vectors are drawn and orthogonalized here
   let mw = new Float64Array(n); // M w before a Gram–Schmidt pass (trades places with mvNext when a step keeps w)
   // M v_j of the current Lanczos vector and M v_{j+1} of the next one, swapped after each step.
   // M·V is not stored: the Gram–Schmidt coefficients are h = Vᵀ(M w), one sparse product per
@@ -197,16 +197,16 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   };
 
   /**
-   * Orthogonalizes w (in place) twice against basis columns [0, upto) in the M-inner product
-   * (start vectors only; the Lanczos steps use the conditional second pass below).
+   * Orthogonalizes `fresh` (in place) twice against basis columns [0, upto) in the M-inner
+   * product (start vectors only; the Lanczos steps use the conditional second pass below).
    */
   let secondPasses = 0; // Lanczos steps that needed the second Gram–Schmidt pass
   let orthogonalSteps = 0; // Lanczos steps whose vector was orthogonal enough after the three-term step
   const reorthogonalize = (upto: number): void => {
     for (let pass = 0; pass < 2; pass++) {
-      mass.apply(w, mw);
+      mass.apply(fresh, mw);
       dotColumns(V, n, 0, upto, mw, h);
-      subtractColumns(V, n, 0, upto, h, w);
+      subtractColumns(V, n, 0, upto, h, fresh);
     }
   };
 
@@ -221,19 +221,19 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       // Orthogonalize the random vector before applying OP: its image then carries no large
       // component along basis eigenvectors with huge θ (shift next to an eigenvalue), so the
       // collapse test below measures only what is genuinely new.
-      rng.fill(w);
+      rng.fill(fresh);
       reorthogonalize(c);
-      mass.apply(w, v);
-      inverse.apply(v, w);
+      mass.apply(fresh, v);
+      inverse.apply(v, fresh);
       steps++;
-      mass.apply(w, z);
-      const before = dot(w, z, n);
+      mass.apply(fresh, z);
+      const before = dot(fresh, z, n);
       reorthogonalize(c);
-      mass.apply(w, z);
-      const after = dot(w, z, n);
+      mass.apply(fresh, z);
+      const after = dot(fresh, z, n);
       if (before > 0 && after > 1e-20 * before) {
         const inv = 1 / Math.sqrt(after);
-        scaleInto(v, w, inv, n);
+        scaleInto(v, fresh, inv, n);
         scaleInto(z, z, inv, n);
         return true;
       }
@@ -297,7 +297,10 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     tested = -1;
     for (let j = k; j < ncv; j++) {
       checkAbort();
-      inverse.apply(mvCur, w); // w = OP v_j = (K − σM)⁻¹ M v_j
+      // w = OP v_j = (K − σM)⁻¹ M v_j, built in place in the next basis column: the mass
+      // products' pass over the basis then also gives ‖w‖²_M (its last column).
+      const w = vCol[L + j + 1];
+      inverse.apply(mvCur, w);
       steps++;
       // Orthogonalization of w against the basis (Paige's three-term recurrence followed by
       // full reorthogonalization, Parlett, The Symmetric Eigenvalue Problem, §13.1 and §6.9):
@@ -319,14 +322,14 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       if (j > k) {
         alpha = dot(mvCur, w, n);
         const betaPrev = T[(j - 1) * ncv + j];
-        axpy(w, vCol[L + j], -alpha, n);
-        axpy(w, vCol[L + j - 1], -betaPrev, n);
+        axpy2(w, vCol[L + j], -alpha, vCol[L + j - 1], -betaPrev, n);
         removed = alpha * alpha + betaPrev * betaPrev;
       }
       let bb = 0;
       for (let pass = 0; pass < 2; pass++) {
+        // h[0 .. upto) = Vᵀ(M w), h[upto] = ‖w‖²_M (pass 0; z = M w after the previous pass).
         if (pass === 0) mass.apply(w, mw);
-        dotColumns(V, n, 0, upto, pass === 0 ? mw : z, h); // z = M w after the previous pass
+        dotColumns(V, n, 0, pass === 0 ? upto + 1 : upto, pass === 0 ? mw : z, h);
         if (pass === 0 && j > k) {
           // After the three-term step the coefficients h are the new vector's measured M-inner
           // products with the whole basis. When every one is below slack · ‖w‖_M, w is kept as
@@ -337,7 +340,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
             const a = Math.abs(h[c]);
             if (a > hmax) hmax = a;
           }
-          const bb0 = dot(w, mw, n);
+          const bb0 = h[upto];
           if (hmax <= slack * Math.sqrt(bb0)) {
             bb = bb0;
             const t = z;
@@ -362,7 +365,6 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       // ‖OP v_j‖²_M ≈ removed + β²; an invariant subspace shows as β ≪ that norm. The new
       // vector is then drawn afresh (in the range of OP) and the coupling set to zero.
       if (beta <= 1e-12 * Math.sqrt(removed + bb)) beta = 0;
-      const v = vCol[L + j + 1];
       if (beta === 0) {
         // Invariant subspace: continue with a fresh start vector, coupling zero.
         if (!newStartVector(L + j + 1, z)) {
@@ -370,11 +372,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
           m = j + 1;
           break;
         }
-      } else {
-        const inv = 1 / beta;
-        scaleInto(v, w, inv, n);
-        scaleInto(z, z, inv, n);
-      }
+      } else scaleBoth(w, z, 1 / beta, n); // v_{j+1} = w / β in place, and its M-image
       if (j + 1 < ncv) {
         T[j * ncv + j + 1] = beta;
         T[(j + 1) * ncv + j] = beta;
