@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Matrix } from 'ml-matrix';
 import { mlMatrixGeneralized } from '../src/eigen/baseline';
-import { matrixNorm1, modeChecks, orthogonalityError, rayleighModeChecks, residuals } from '../src/eigen/verify';
+import { checkWorkLength, matrixNorm1, modeChecks, orthogonalityError, rayleighModeChecks, residuals } from '../src/eigen/verify';
 import { ArgumentError, VerificationError } from '../src/errors';
 import type { Operator } from '../src/linalg/operator';
 import { fromDenseArray, symmetricMultiply } from '../src/linalg/sparse/symmetric';
@@ -52,6 +52,16 @@ describe('verify: checks of eigenpairs', () => {
     const r2 = residuals(K, M, wrong, ref.vectors);
     expect(r2[3]).toBeGreaterThan(1e-4);
     expect(r2[2]).toBeLessThan(1e-12);
+  });
+
+  it('modeChecks with a work space (stale contents, or too short) gives the bits it gives without', () => {
+    const plain = modeChecks(K, M, ref.eigenvalues, ref.vectors);
+    const stale = new Float64Array(checkWorkLength(n, n)).fill(Number.NaN);
+    const withWork = modeChecks(K, M, ref.eigenvalues, ref.vectors, undefined, stale);
+    expect(Array.from(withWork.residuals)).toEqual(Array.from(plain.residuals));
+    expect(withWork.orthogonalityError).toBe(plain.orthogonalityError);
+    const short = modeChecks(K, M, ref.eigenvalues, ref.vectors, undefined, new Float64Array(3));
+    expect(Array.from(short.residuals)).toEqual(Array.from(plain.residuals));
   });
 
   it('rayleighModeChecks replaces perturbed values by the Rayleigh quotients of the modes', () => {

@@ -7,7 +7,7 @@ export { denseEigen, DENSE_EIGEN_DEFAULTS, type DenseEigenOptions, type DenseEig
 export { lanczos, LANCZOS_DEFAULTS, type LanczosOptions, type LanczosResult, type ProgressCallback } from './lanczos';
 export { subspaceIteration, SUBSPACE_DEFAULTS, type SubspaceOptions, type SubspaceResult } from './subspace';
 export { sturmCount, sturmCheck, STURM_GAP, STURM_PIVOT_TOLERANCE, type SturmCheckOptions } from './sturm';
-export { residuals, orthogonalityError, modeChecks, matrixNorm1, type SymmetricOperand } from './verify';
+export { residuals, orthogonalityError, modeChecks, checkWorkLength, matrixNorm1, type SymmetricOperand } from './verify';
 export { matrixOperator, shiftInvertOperator, inverseOperator, type BlockOperator } from './operators';
 export { mlMatrixGeneralized, type BaselineResult } from './baseline';
 export { checkMassSemidefinite, MASS_CHECK_DEFAULTS, MASS_DEFINITENESS_TOLERANCE, type MassCheck, type MassCheckOptions, type MassCheckResult } from './definiteness';

@@ -23,7 +23,7 @@ import { lowestModesShift, type LowestModesShift } from './shift';
 import { STURM_PIVOT_TOLERANCE, sturmCheck } from './sturm';
 import { subspaceIteration } from './subspace';
 import type { EigenMethod, EigenResult, SturmCheck } from './types';
-import { matrixNorm1, modeChecks, rayleighModeChecks } from './verify';
+import { checkWorkLength, matrixNorm1, modeChecks, rayleighModeChecks } from './verify';
 
 /** Methods `solve` accepts: `auto`, `dense` (= the dense default, Cholesky), or a named one. */
 export type SolveMethod = 'auto' | 'dense' | EigenMethod;
@@ -303,11 +303,14 @@ function verifiedResult(
 ): EigenResult {
   let res: Float64Array;
   let orth: number;
+  // The products of the checks go to the solver's buffer behind the vectors when it has room
+  // (the Lanczos basis's unused columns: memory already touched, no fresh pages).
+  const work = spareAfter(vectors, checkWorkLength(K.n, values.length));
   if (rayleigh) {
-    ({ residuals: res, orthogonalityError: orth } = rayleighModeChecks(K, M, values, vectors, normK));
+    ({ residuals: res, orthogonalityError: orth } = rayleighModeChecks(K, M, values, vectors, normK, work));
     ({ values, vectors, residuals: res } = ascending(values, vectors, res, K.n));
   } else {
-    ({ residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, normK));
+    ({ residuals: res, orthogonalityError: orth } = modeChecks(K, M, values, vectors, normK, work));
   }
   if (verify) assertAccepted(values, res, orth, sturm);
   const verifyMs = performance.now() - tv;
@@ -321,6 +324,12 @@ function verifiedResult(
     method,
     stats: stats(verifyMs),
   };
+}
+
+/** `length` entries of x's buffer after x itself, when the buffer holds them. */
+function spareAfter(x: Float64Array, length: number): Float64Array | undefined {
+  const start = x.byteOffset + x.byteLength;
+  return x.buffer.byteLength - start >= 8 * length ? new Float64Array(x.buffer, start, length) : undefined;
 }
 
 /**

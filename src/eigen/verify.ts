@@ -141,11 +141,13 @@ export function residuals(K: SymmetricOperand, M: SymmetricOperand, values: Floa
  * @param values - eigenvalues λ (rad²/s²), length m
  * @param vectors - mode shapes, column-major n × m
  * @param normK - ‖K‖₁; computed by {@link matrixNorm1} when omitted
+ * @param work - optional space for the products, ≥ {@link checkWorkLength}(n, m) entries (a
+ *   solver passes memory it has already touched); allocated when omitted or too short
  * @returns residuals (length m, dimensionless) and orthogonalityError (max |ΦᵀMΦ − I|)
  * @throws ArgumentError when the sizes disagree
  */
-export function modeChecks(K: SymmetricOperand, M: SymmetricOperand, values: Float64Array, vectors: Float64Array, normK?: number): { residuals: Float64Array; orthogonalityError: number } {
-  return checkPairs(K, M, values, vectors, normK, 'both');
+export function modeChecks(K: SymmetricOperand, M: SymmetricOperand, values: Float64Array, vectors: Float64Array, normK?: number, work?: Float64Array): { residuals: Float64Array; orthogonalityError: number } {
+  return checkPairs(K, M, values, vectors, normK, 'both', work);
 }
 
 /**
@@ -155,14 +157,20 @@ export function modeChecks(K: SymmetricOperand, M: SymmetricOperand, values: Flo
  * Problem, §4.6 and §11.4). For the Ritz vectors of one Lanczos run, whose values σ + 1/θ can
  * lose digits on soft modes beside much stiffer members.
  * @param values - overwritten with the Rayleigh quotients (rad²/s²), length m (not re-sorted)
+ * @param work - as for modeChecks
  * @returns residuals (with the new values) and orthogonalityError, as modeChecks
  */
-export function rayleighModeChecks(K: SymmetricOperand, M: SymmetricOperand, values: Float64Array, vectors: Float64Array, normK?: number): { residuals: Float64Array; orthogonalityError: number } {
-  return checkPairs(K, M, values, vectors, normK, 'rayleigh');
+export function rayleighModeChecks(K: SymmetricOperand, M: SymmetricOperand, values: Float64Array, vectors: Float64Array, normK?: number, work?: Float64Array): { residuals: Float64Array; orthogonalityError: number } {
+  return checkPairs(K, M, values, vectors, normK, 'rayleigh', work);
 }
 
 /** Modes per block product in the checks (symmetricMultiplyMany takes four columns per pass). */
 const CHECK_BLOCK = 4;
+
+/** Entries of the `work` space the mode checks use for n-vectors and m modes. */
+export function checkWorkLength(n: number, m: number): number {
+  return 2 * n * Math.min(CHECK_BLOCK, m);
+}
 
 /** Y ← A·X for k column-major vectors: one pass over a sparse A per four of them. */
 function multiplyBlock(a: SymmetricOperand, op: Operator, x: Float64Array, y: Float64Array, k: number, n: number): void {
@@ -177,6 +185,7 @@ function checkPairs(
   vectors: Float64Array,
   normK: number | undefined,
   what: 'residuals' | 'both' | 'rayleigh',
+  work?: Float64Array,
 ): { residuals: Float64Array; orthogonalityError: number } {
   const withOrthogonality = what !== 'residuals';
   const rayleigh = what === 'rayleigh';
@@ -190,8 +199,9 @@ function checkPairs(
   // Modes go through the products CHECK_BLOCK at a time (one pass over a sparse K or M serves
   // them all); each mode's checks then read its own columns.
   const block = Math.min(CHECK_BLOCK, m);
-  const kxs = new Float64Array(n * block);
-  const mxs = new Float64Array(n * block);
+  const space = work && work.length >= checkWorkLength(n, m) ? work : new Float64Array(checkWorkLength(n, m));
+  const kxs = space.subarray(0, n * block);
+  const mxs = space.subarray(n * block, 2 * n * block);
   const h = new Float64Array(m);
   const out = new Float64Array(m);
   let worst = 0;
