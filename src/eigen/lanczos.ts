@@ -131,8 +131,9 @@ export interface LanczosResult {
 /**
  * Orthogonality a Lanczos basis of c columns may lose to skipped subtractions: a new vector is
  * kept without its Gram–Schmidt subtraction when its measured M-inner product with every basis
- * vector is at most ORTHOGONALITY_BUDGET / c of its M-norm. Basis vectors never change after they
- * are made (a restart rotates them by an orthogonal matrix), so the basis's Gram matrix then
+ * vector is at most ORTHOGONALITY_BUDGET / c of its M-norm. Basis vectors do not change after
+ * they are made (a restart rotates them by an orthogonal matrix; purification at locking adds a
+ * multiple of at most the tolerance of the residual vector), so the basis's Gram matrix then
  * differs from I by at most c · (budget / c) = budget in 2-norm (bounded by the Frobenius norm),
  * and so do its Ritz vectors: a tenth of the 1e-10 the checks require. A step with larger
  * products gets the full pass.
