@@ -187,7 +187,7 @@ export function subtractColumns(v: Float64Array, n: number, c0: number, c1: numb
  * dimension ldS), k ≤ m. Rows are processed in blocks copied (transposed, row-major) to `tmp`
  * first, so the result may overwrite its own input; each block is then written by 3 × 3 register
  * blocks (nine sums and six loaded values fit the sixteen floating-point registers of x86-64,
- * where a 4 × 4 block spills: measured 25 % faster than the factor's product for n ≈ 84,000,
+ * where a 4 × 4 block spills: measured up to 25 % faster than the factor's product for n ≈ 84,000,
  * m = 41, k = 30). Every output is one sequential sum over the m inputs.
  * @param v - basis, column-major n × (≥ c0 + m)
  * @param tmp - work buffer of length ≥ m · rowBlock (rowBlock = ⌊tmp.length / m⌋, at least 1;

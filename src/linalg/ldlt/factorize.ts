@@ -263,7 +263,7 @@ function factorSupernode(w: NumericWork, s: number): void {
  * then links dn to the next supernode it updates.
  */
 function updateFromDescendant(w: NumericWork, s: number, dn: number): void {
-  const { superStart, rowPtr, rows, lxPtr } = w;
+  const { superStart, rowPtr, rows, lxPtr, lx, d, scaled, colLocal } = w;
   const f = superStart[s];
   const nc = superStart[s + 1] - f;
   const l = f + nc - 1;
@@ -278,11 +278,17 @@ function updateFromDescendant(w: NumericWork, s: number, dn: number): void {
   while (p2 < nrd && rows[rd0 + p2] <= l) p2++;
   const m = nrd - p1;
   const q = p2 - p1;
-  if (ncd <= DIRECT_UPDATE_COLUMNS && m * q <= DIRECT_UPDATE_ENTRIES) {
-    updateDirect(w, nc, base, ncd, rd0 + p1, based + p1 * ncd, fd, f, m, q);
-  } else {
-    updateThroughScratch(w, nc, base, ncd, rd0 + p1, based + p1 * ncd, fd, f, m, q);
+  const r0 = rd0 + p1;
+  const a0 = based + p1 * ncd;
+  // Rows of L_d facing the columns of s, scaled by D_d, and those columns' local numbers.
+  for (let j = 0; j < q; j++) {
+    const src = a0 + j * ncd;
+    const dst = j * ncd;
+    for (let c = 0; c < ncd; c++) scaled[dst + c] = lx[src + c] * d[fd + c];
+    colLocal[j] = rows[r0 + j] - f;
   }
+  if (ncd <= DIRECT_UPDATE_COLUMNS && m * q <= DIRECT_UPDATE_ENTRIES) updateDirect(w, nc, base, ncd, r0, a0, m, q);
+  else updateThroughScratch(w, nc, base, ncd, r0, a0, m, q);
   w.nextPos[dn] = p2;
   if (p2 < nrd) {
     const t = w.superOf[rows[rd0 + p2]];
@@ -295,7 +301,7 @@ function updateFromDescendant(w: NumericWork, s: number, dn: number): void {
  * Updates from descendants of at most DIRECT_UPDATE_COLUMNS columns into at most
  * DIRECT_UPDATE_ENTRIES entries (m · q) go entry by entry, without the scratch block and the
  * blocked product, whose set-up costs more than so few products (the bulk of a bar structure's
- * updates; measured: footbridge factorization −15 %). Larger ones keep the register blocking.
+ * updates; measured: footbridge factorization −10 %). Larger ones keep the register blocking.
  */
 const DIRECT_UPDATE_COLUMNS = 6;
 const DIRECT_UPDATE_ENTRIES = 128;
@@ -303,16 +309,11 @@ const DIRECT_UPDATE_ENTRIES = 128;
 /**
  * The update of updateFromDescendant entry by entry: L_s(i, j) −= Σ_c L_d(i, c) d_c L_d(j, c),
  * each sum over c in ascending order from zero, as the blocked product forms it (same bits).
- * r0 is the position in `rows` and a0 in `lx` of the descendant's first row below or at f.
+ * r0 is the position in `rows` and a0 in `lx` of the descendant's first row below or at f;
+ * `scaled` and `colLocal` hold its first q rows scaled by D and their local columns.
  */
-function updateDirect(w: NumericWork, nc: number, base: number, ncd: number, r0: number, a0: number, fd: number, f: number, m: number, q: number): void {
-  const { rows, lx, d, scaled, colLocal, rel } = w;
-  for (let j = 0; j < q; j++) {
-    const src = a0 + j * ncd;
-    const dst = j * ncd;
-    for (let c = 0; c < ncd; c++) scaled[dst + c] = lx[src + c] * d[fd + c];
-    colLocal[j] = rows[r0 + j] - f;
-  }
+function updateDirect(w: NumericWork, nc: number, base: number, ncd: number, r0: number, a0: number, m: number, q: number): void {
+  const { rows, lx, scaled, colLocal, rel } = w;
   for (let i = 0; i < m; i++) {
     const ri = base + rel[rows[r0 + i]] * nc;
     const ai = a0 + i * ncd;
@@ -327,14 +328,8 @@ function updateDirect(w: NumericWork, nc: number, base: number, ncd: number, r0:
 }
 
 /** The update of updateFromDescendant through the scratch block and the blocked product. */
-function updateThroughScratch(w: NumericWork, nc: number, base: number, ncd: number, r0: number, a0: number, fd: number, f: number, m: number, q: number): void {
-  const { rows, lx, d, scaled, colLocal, scratch, rel } = w;
-  for (let j = 0; j < q; j++) {
-    const src = a0 + j * ncd;
-    const dst = j * ncd;
-    for (let c = 0; c < ncd; c++) scaled[dst + c] = lx[src + c] * d[fd + c];
-    colLocal[j] = rows[r0 + j] - f;
-  }
+function updateThroughScratch(w: NumericWork, nc: number, base: number, ncd: number, r0: number, a0: number, m: number, q: number): void {
+  const { rows, lx, scaled, colLocal, scratch, rel } = w;
   scratch.fill(0, 0, m * q);
   gemmSubNT(m, q, ncd, lx, a0, ncd, scaled, 0, ncd, scratch, 0, q, 0);
   for (let i = 0; i < m; i++) {

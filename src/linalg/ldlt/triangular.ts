@@ -8,9 +8,9 @@
  * Supernodes of one to six columns, the bulk of a bar or frame factor, keep the supernode's
  * unknowns in locals and stream the rows below once (measured on a bar footbridge's factor:
  * forward −20 %, backward −25 % against the blocked loops for three to six columns); wider ones
- * go four (forward) or eight (backward) rows at a time. Each width is a function of its own: the JavaScript engine then
- * compiles each small loop to optimized code within the first solve, where one function holding
- * every case took longer to compile than the solve took to run. The order of every sum is fixed,
+ * go four (forward) or eight (backward) rows at a time. Each width is a function of its own:
+ * the JavaScript engine then compiles each small loop to optimized code within the first solve,
+ * where one function holding every case took longer to compile than the solve took to run. The order of every sum is fixed,
  * so every path gives the same bits. No allocation.
  */
 
