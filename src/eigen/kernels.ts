@@ -3,6 +3,16 @@
  * Lanczos reorthogonalization and the Rayleigh–Ritz steps. Eight or four columns are processed
  * per pass so that each load of the vector serves several dot products or updates (a level-2
  * BLAS blocking, as in GEMV). None of these allocates.
+ *
+ * Cold start: every loop over the n rows sits in a function of its own that ends with that loop
+ * (each column width its own function). V8 compiles a loop that is still running on its own
+ * (on-stack replacement); code after it that had not yet run has no type feedback, so the
+ * compiled loop is dropped when it reaches that code, and the next calls re-enter the same
+ * compiled loop and drop it again. Measured on the 83,784-DOF footbridge's first solve in a
+ * process: 26 such exits in the restart's combination and 25 in the factor's solve, whose
+ * remaining rows then ran in the interpreter; with the loops split out, none, and the Gram–
+ * Schmidt products and subtractions of the first ten Lanczos steps took 25–27 ms instead of
+ * 62–67 (two fresh processes each; 8–9 ms once the code is compiled).
  */
 
 /**
@@ -61,72 +71,78 @@ export function scaleInto(y: Float64Array, x: Float64Array, a: number, n: number
 export function dotColumns(v: Float64Array, n: number, c0: number, c1: number, w: Float64Array, h: Float64Array): void {
   let c = c0;
   // Eight columns per pass over w, then four, then one: the basis is read once either way, w
-  // fewer times (measured 14 % faster at n ≈ 84,000 and 32 columns).
-  for (; c + 8 <= c1; c += 8) {
-    const o0 = c * n;
-    const o1 = o0 + n;
-    const o2 = o1 + n;
-    const o3 = o2 + n;
-    const o4 = o3 + n;
-    const o5 = o4 + n;
-    const o6 = o5 + n;
-    const o7 = o6 + n;
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    let s4 = 0;
-    let s5 = 0;
-    let s6 = 0;
-    let s7 = 0;
-    for (let i = 0; i < n; i++) {
-      const wi = w[i];
-      s0 += v[o0 + i] * wi;
-      s1 += v[o1 + i] * wi;
-      s2 += v[o2 + i] * wi;
-      s3 += v[o3 + i] * wi;
-      s4 += v[o4 + i] * wi;
-      s5 += v[o5 + i] * wi;
-      s6 += v[o6 + i] * wi;
-      s7 += v[o7 + i] * wi;
-    }
-    const q = c - c0;
-    h[q] = s0;
-    h[q + 1] = s1;
-    h[q + 2] = s2;
-    h[q + 3] = s3;
-    h[q + 4] = s4;
-    h[q + 5] = s5;
-    h[q + 6] = s6;
-    h[q + 7] = s7;
+  // fewer times (measured 14 % faster at n ≈ 84,000 and 32 columns). Each width is a function
+  // of its own (see the cold-start note above).
+  for (; c + 8 <= c1; c += 8) dot8(v, n, c * n, w, h, c - c0);
+  for (; c + 4 <= c1; c += 4) dot4(v, n, c * n, w, h, c - c0);
+  for (; c < c1; c++) h[c - c0] = dot1(v, n, c * n, w);
+}
+
+/** h[q .. q+8) ← the products of w with the eight columns of v from offset o, one pass over w. */
+function dot8(v: Float64Array, n: number, o: number, w: Float64Array, h: Float64Array, q: number): void {
+  const o1 = o + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  const o4 = o3 + n;
+  const o5 = o4 + n;
+  const o6 = o5 + n;
+  const o7 = o6 + n;
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let s4 = 0;
+  let s5 = 0;
+  let s6 = 0;
+  let s7 = 0;
+  for (let i = 0; i < n; i++) {
+    const wi = w[i];
+    s0 += v[o + i] * wi;
+    s1 += v[o1 + i] * wi;
+    s2 += v[o2 + i] * wi;
+    s3 += v[o3 + i] * wi;
+    s4 += v[o4 + i] * wi;
+    s5 += v[o5 + i] * wi;
+    s6 += v[o6 + i] * wi;
+    s7 += v[o7 + i] * wi;
   }
-  for (; c + 4 <= c1; c += 4) {
-    const o0 = c * n;
-    const o1 = o0 + n;
-    const o2 = o1 + n;
-    const o3 = o2 + n;
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
-    for (let i = 0; i < n; i++) {
-      const wi = w[i];
-      s0 += v[o0 + i] * wi;
-      s1 += v[o1 + i] * wi;
-      s2 += v[o2 + i] * wi;
-      s3 += v[o3 + i] * wi;
-    }
-    h[c - c0] = s0;
-    h[c - c0 + 1] = s1;
-    h[c - c0 + 2] = s2;
-    h[c - c0 + 3] = s3;
+  h[q] = s0;
+  h[q + 1] = s1;
+  h[q + 2] = s2;
+  h[q + 3] = s3;
+  h[q + 4] = s4;
+  h[q + 5] = s5;
+  h[q + 6] = s6;
+  h[q + 7] = s7;
+}
+
+/** h[q .. q+4) ← the products of w with the four columns of v from offset o, one pass over w. */
+function dot4(v: Float64Array, n: number, o: number, w: Float64Array, h: Float64Array, q: number): void {
+  const o1 = o + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  for (let i = 0; i < n; i++) {
+    const wi = w[i];
+    s0 += v[o + i] * wi;
+    s1 += v[o1 + i] * wi;
+    s2 += v[o2 + i] * wi;
+    s3 += v[o3 + i] * wi;
   }
-  for (; c < c1; c++) {
-    const o = c * n;
-    let s = 0;
-    for (let i = 0; i < n; i++) s += v[o + i] * w[i];
-    h[c - c0] = s;
-  }
+  h[q] = s0;
+  h[q + 1] = s1;
+  h[q + 2] = s2;
+  h[q + 3] = s3;
+}
+
+/** The product of w with the column of v from offset o. */
+function dot1(v: Float64Array, n: number, o: number, w: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s += v[o + i] * w[i];
+  return s;
 }
 
 /**
@@ -139,47 +155,53 @@ export function dotColumns(v: Float64Array, n: number, c0: number, c1: number, w
 export function subtractColumns(v: Float64Array, n: number, c0: number, c1: number, h: Float64Array, w: Float64Array): void {
   let c = c0;
   // Eight columns per pass over w, then four, then one (see dotColumns).
-  for (; c + 8 <= c1; c += 8) {
-    const o0 = c * n;
-    const o1 = o0 + n;
-    const o2 = o1 + n;
-    const o3 = o2 + n;
-    const o4 = o3 + n;
-    const o5 = o4 + n;
-    const o6 = o5 + n;
-    const o7 = o6 + n;
-    const q = c - c0;
-    const h0 = h[q];
-    const h1 = h[q + 1];
-    const h2 = h[q + 2];
-    const h3 = h[q + 3];
-    const h4 = h[q + 4];
-    const h5 = h[q + 5];
-    const h6 = h[q + 6];
-    const h7 = h[q + 7];
-    for (let i = 0; i < n; i++) {
-      w[i] -= v[o0 + i] * h0 + v[o1 + i] * h1 + v[o2 + i] * h2 + v[o3 + i] * h3 + (v[o4 + i] * h4 + v[o5 + i] * h5 + v[o6 + i] * h6 + v[o7 + i] * h7);
-    }
-  }
-  for (; c + 4 <= c1; c += 4) {
-    const o0 = c * n;
-    const o1 = o0 + n;
-    const o2 = o1 + n;
-    const o3 = o2 + n;
-    const h0 = h[c - c0];
-    const h1 = h[c - c0 + 1];
-    const h2 = h[c - c0 + 2];
-    const h3 = h[c - c0 + 3];
-    for (let i = 0; i < n; i++) {
-      w[i] -= v[o0 + i] * h0 + v[o1 + i] * h1 + v[o2 + i] * h2 + v[o3 + i] * h3;
-    }
-  }
+  for (; c + 8 <= c1; c += 8) subtract8(v, n, c * n, h, c - c0, w);
+  for (; c + 4 <= c1; c += 4) subtract4(v, n, c * n, h, c - c0, w);
   for (; c < c1; c++) {
-    const o = c * n;
     const hc = h[c - c0];
-    if (hc === 0) continue;
-    for (let i = 0; i < n; i++) w[i] -= v[o + i] * hc;
+    if (hc !== 0) subtract1(v, n, c * n, hc, w);
   }
+}
+
+/** w ← w − Σ_{p<8} V[:, p] · h[q + p] over the eight columns of v from offset o, one pass. */
+function subtract8(v: Float64Array, n: number, o: number, h: Float64Array, q: number, w: Float64Array): void {
+  const o1 = o + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  const o4 = o3 + n;
+  const o5 = o4 + n;
+  const o6 = o5 + n;
+  const o7 = o6 + n;
+  const h0 = h[q];
+  const h1 = h[q + 1];
+  const h2 = h[q + 2];
+  const h3 = h[q + 3];
+  const h4 = h[q + 4];
+  const h5 = h[q + 5];
+  const h6 = h[q + 6];
+  const h7 = h[q + 7];
+  for (let i = 0; i < n; i++) {
+    w[i] -= v[o + i] * h0 + v[o1 + i] * h1 + v[o2 + i] * h2 + v[o3 + i] * h3 + (v[o4 + i] * h4 + v[o5 + i] * h5 + v[o6 + i] * h6 + v[o7 + i] * h7);
+  }
+}
+
+/** w ← w − Σ_{p<4} V[:, p] · h[q + p] over the four columns of v from offset o, one pass. */
+function subtract4(v: Float64Array, n: number, o: number, h: Float64Array, q: number, w: Float64Array): void {
+  const o1 = o + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  const h0 = h[q];
+  const h1 = h[q + 1];
+  const h2 = h[q + 2];
+  const h3 = h[q + 3];
+  for (let i = 0; i < n; i++) {
+    w[i] -= v[o + i] * h0 + v[o1 + i] * h1 + v[o2 + i] * h2 + v[o3 + i] * h3;
+  }
+}
+
+/** w ← w − a · (the column of v from offset o). */
+function subtract1(v: Float64Array, n: number, o: number, a: number, w: Float64Array): void {
+  for (let i = 0; i < n; i++) w[i] -= v[o + i] * a;
 }
 
 /**
@@ -217,61 +239,74 @@ export function combineColumnsInPlace(
 
 /** out[c·n + r] ← Σₚ t[r·m + p] · S[c·ldS + p] for r < b, c < k (out from offset o). */
 function combineBlock(out: Float64Array, o: number, n: number, b: number, m: number, s: Float64Array, ldS: number, k: number, t: Float64Array): void {
+  // Three output columns at a time, then one; each shape is a function of its own (see the
+  // cold-start note above).
   const b3 = b - (b % 3);
   let c = 0;
   for (; c + 3 <= k; c += 3) {
-    const s0 = c * ldS;
-    const s1 = s0 + ldS;
-    const s2 = s1 + ldS;
-    const o0 = o + c * n;
-    const o1 = o0 + n;
-    const o2 = o1 + n;
-    let r = 0;
-    for (; r < b3; r += 3) {
-      const t0 = r * m;
-      const t1 = t0 + m;
-      const t2 = t1 + m;
-      let a00 = 0, a10 = 0, a20 = 0;
-      let a01 = 0, a11 = 0, a21 = 0;
-      let a02 = 0, a12 = 0, a22 = 0;
-      for (let p = 0; p < m; p++) {
-        const x0 = s[s0 + p];
-        const x1 = s[s1 + p];
-        const x2 = s[s2 + p];
-        const y0 = t[t0 + p];
-        const y1 = t[t1 + p];
-        const y2 = t[t2 + p];
-        a00 += y0 * x0; a10 += y1 * x0; a20 += y2 * x0;
-        a01 += y0 * x1; a11 += y1 * x1; a21 += y2 * x1;
-        a02 += y0 * x2; a12 += y1 * x2; a22 += y2 * x2;
-      }
-      out[o0 + r] = a00; out[o0 + r + 1] = a10; out[o0 + r + 2] = a20;
-      out[o1 + r] = a01; out[o1 + r + 1] = a11; out[o1 + r + 2] = a21;
-      out[o2 + r] = a02; out[o2 + r + 1] = a12; out[o2 + r + 2] = a22;
-    }
-    for (; r < b; r++) {
-      const t0 = r * m;
-      let a0 = 0, a1 = 0, a2 = 0;
-      for (let p = 0; p < m; p++) {
-        const y = t[t0 + p];
-        a0 += y * s[s0 + p];
-        a1 += y * s[s1 + p];
-        a2 += y * s[s2 + p];
-      }
-      out[o0 + r] = a0;
-      out[o1 + r] = a1;
-      out[o2 + r] = a2;
-    }
+    combineThree(out, o + c * n, n, b3, m, s, c * ldS, ldS, t);
+    for (let r = b3; r < b; r++) combineThreeRow(out, o + c * n, n, r, m, s, c * ldS, ldS, t);
   }
-  for (; c < k; c++) {
-    const s0 = c * ldS;
-    const o0 = o + c * n;
-    for (let r = 0; r < b; r++) {
-      const t0 = r * m;
-      let a = 0;
-      for (let p = 0; p < m; p++) a += t[t0 + p] * s[s0 + p];
-      out[o0 + r] = a;
+  for (; c < k; c++) combineOne(out, o + c * n, b, m, s, c * ldS, t);
+}
+
+/**
+ * Columns o, o + n, o + 2n of out ← rows [0, b3) of t times S's columns from s0 (stride ldS),
+ * b3 a multiple of 3.
+ */
+function combineThree(out: Float64Array, o0: number, n: number, b3: number, m: number, s: Float64Array, s0: number, ldS: number, t: Float64Array): void {
+  const s1 = s0 + ldS;
+  const s2 = s1 + ldS;
+  const o1 = o0 + n;
+  const o2 = o1 + n;
+  for (let r = 0; r < b3; r += 3) {
+    const t0 = r * m;
+    const t1 = t0 + m;
+    const t2 = t1 + m;
+    let a00 = 0, a10 = 0, a20 = 0;
+    let a01 = 0, a11 = 0, a21 = 0;
+    let a02 = 0, a12 = 0, a22 = 0;
+    for (let p = 0; p < m; p++) {
+      const x0 = s[s0 + p];
+      const x1 = s[s1 + p];
+      const x2 = s[s2 + p];
+      const y0 = t[t0 + p];
+      const y1 = t[t1 + p];
+      const y2 = t[t2 + p];
+      a00 += y0 * x0; a10 += y1 * x0; a20 += y2 * x0;
+      a01 += y0 * x1; a11 += y1 * x1; a21 += y2 * x1;
+      a02 += y0 * x2; a12 += y1 * x2; a22 += y2 * x2;
     }
+    out[o0 + r] = a00; out[o0 + r + 1] = a10; out[o0 + r + 2] = a20;
+    out[o1 + r] = a01; out[o1 + r + 1] = a11; out[o1 + r + 2] = a21;
+    out[o2 + r] = a02; out[o2 + r + 1] = a12; out[o2 + r + 2] = a22;
+  }
+}
+
+/** Row r of combineThree's three output columns. */
+function combineThreeRow(out: Float64Array, o0: number, n: number, r: number, m: number, s: Float64Array, s0: number, ldS: number, t: Float64Array): void {
+  const s1 = s0 + ldS;
+  const s2 = s1 + ldS;
+  const t0 = r * m;
+  let a0 = 0, a1 = 0, a2 = 0;
+  for (let p = 0; p < m; p++) {
+    const y = t[t0 + p];
+    a0 += y * s[s0 + p];
+    a1 += y * s[s1 + p];
+    a2 += y * s[s2 + p];
+  }
+  out[o0 + r] = a0;
+  out[o0 + n + r] = a1;
+  out[o0 + 2 * n + r] = a2;
+}
+
+/** Column o of out ← rows [0, b) of t times S's column from s0. */
+function combineOne(out: Float64Array, o0: number, b: number, m: number, s: Float64Array, s0: number, t: Float64Array): void {
+  for (let r = 0; r < b; r++) {
+    const t0 = r * m;
+    let a = 0;
+    for (let p = 0; p < m; p++) a += t[t0 + p] * s[s0 + p];
+    out[o0 + r] = a;
   }
 }
 
