@@ -204,6 +204,7 @@ function checkPairs(
   const mxs = space.subarray(n * block, 2 * n * block);
   const h = new Float64Array(m);
   const out = new Float64Array(m);
+  const sums = new Float64Array(2);
   let worst = 0;
   for (let j = 0; j < m; j++) {
     const q = j % block;
@@ -220,15 +221,9 @@ function checkPairs(
       const xmx = dot(x, mx, n);
       if (xmx > 0) values[j] = dot(x, kx, n) / xmx;
     }
-    const lam = values[j];
-    let r2 = 0;
-    let x2 = 0;
-    for (let i = 0; i < n; i++) {
-      const r = kx[i] - lam * mx[i];
-      r2 += r * r;
-      x2 += x[i] * x[i];
-    }
-    const den = nk * Math.sqrt(x2);
+    residualSquares(kx, mx, x, values[j], n, sums);
+    const r2 = sums[0];
+    const den = nk * Math.sqrt(sums[1]);
     out[j] = den > 0 ? Math.sqrt(r2) / den : Math.sqrt(r2);
     if (withOrthogonality) {
       dotColumns(vectors, n, 0, j + 1, mx, h);
@@ -239,6 +234,22 @@ function checkPairs(
     }
   }
   return { residuals: out, orthogonalityError: worst };
+}
+
+/**
+ * sums[0] ← ‖kx − λ·mx‖², sums[1] ← ‖x‖² (one pass). A function of its own so that checkPairs
+ * holds no long loop (see the cold-start note in kernels.ts).
+ */
+function residualSquares(kx: Float64Array, mx: Float64Array, x: Float64Array, lam: number, n: number, sums: Float64Array): void {
+  let r2 = 0;
+  let x2 = 0;
+  for (let i = 0; i < n; i++) {
+    const r = kx[i] - lam * mx[i];
+    r2 += r * r;
+    x2 += x[i] * x[i];
+  }
+  sums[0] = r2;
+  sums[1] = x2;
 }
 
 /**

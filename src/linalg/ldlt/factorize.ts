@@ -73,17 +73,29 @@ class SupernodalFactor implements LdltFactor {
     }
     if (this.work.length < n * k) this.work = new Float64Array(n * k);
     const y = this.work;
-    const { perm } = this;
-    for (let r = 0; r < k; r++) {
-      const o = r * n;
-      for (let q = 0; q < n; q++) y[o + q] = b[o + perm[q]];
-    }
+    // The loops over the rows live in functions of their own (see permuteInto): a long loop here
+    // would be compiled on its own (on-stack replacement) before the code after it had run, and
+    // that code would then drop the compiled loop on every call of the first solves.
+    permuteInto(y, b, this.perm, n, k);
     forwardSolve(y, k, n, this.superStart, this.rowPtr, this.rows, this.lxPtr, this.lx);
     backwardSolve(y, k, n, this.superStart, this.rowPtr, this.rows, this.lxPtr, this.lx, this.d);
-    for (let r = 0; r < k; r++) {
-      const o = r * n;
-      for (let q = 0; q < n; q++) x[o + perm[q]] = y[o + q];
-    }
+    permuteBack(x, y, this.perm, n, k);
+  }
+}
+
+/** y[r·n + q] ← b[r·n + perm[q]] for the k columns (the factor's order). */
+function permuteInto(y: Float64Array, b: Float64Array, perm: Int32Array, n: number, k: number): void {
+  for (let r = 0; r < k; r++) {
+    const o = r * n;
+    for (let q = 0; q < n; q++) y[o + q] = b[o + perm[q]];
+  }
+}
+
+/** x[r·n + perm[q]] ← y[r·n + q] for the k columns (back to the caller's order). */
+function permuteBack(x: Float64Array, y: Float64Array, perm: Int32Array, n: number, k: number): void {
+  for (let r = 0; r < k; r++) {
+    const o = r * n;
+    for (let q = 0; q < n; q++) x[o + perm[q]] = y[o + q];
   }
 }
 
