@@ -204,6 +204,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
   let secondPasses = 0; // Lanczos steps that needed the second Gram–Schmidt pass
   let orthogonalSteps = 0; // Lanczos steps whose vector was orthogonal enough after the three-term step
   const reorthogonalize = (upto: number): void => {
+    if (upto === 0) return; // nothing to be orthogonal to (and no mass products to spend)
     for (let pass = 0; pass < 2; pass++) {
       mass.apply(fresh, mw);
       dotColumns(V, n, 0, upto, mw, h);
@@ -229,9 +230,12 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
       steps++;
       mass.apply(fresh, z);
       const before = dot(fresh, z, n);
-      reorthogonalize(c);
-      mass.apply(fresh, z);
-      const after = dot(fresh, z, n);
+      let after = before;
+      if (c > 0) {
+        reorthogonalize(c);
+        mass.apply(fresh, z);
+        after = dot(fresh, z, n);
+      }
       if (before > 0 && after > 1e-20 * before) {
         const inv = 1 / Math.sqrt(after);
         scaleInto(v, fresh, inv, n);
