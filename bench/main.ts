@@ -40,18 +40,24 @@ interface Flags {
   cases: string[];
   /** Per-child time limit, minutes. */
   timeoutMinutes: number;
+  /** Alternating runs of ours and SciPy on the target cases (median reported). */
+  rounds: number;
 }
 
-const USAGE = `usage: npm run bench -- [--quick] [--case NAME]... [--timeout-min N] | --batch
+/** Default of `--rounds`: one run on this shared machine can be off by a third either way. */
+const DEFAULT_ROUNDS = 3;
+
+const USAGE = `usage: npm run bench -- [--quick] [--case NAME]... [--timeout-min N] [--rounds N] | --batch
 cases: ${CASES.map((c) => c.name).join(', ')} (or a family: building, footbridge, dense)`;
 
 function parseFlags(argv: readonly string[]): Flags {
-  const flags: Flags = { quick: false, cases: [], timeoutMinutes: 10 };
+  const flags: Flags = { quick: false, cases: [], timeoutMinutes: 10, rounds: DEFAULT_ROUNDS };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--quick') flags.quick = true;
     else if (a === '--case' && i + 1 < argv.length) flags.cases.push(argv[++i]);
     else if (a === '--timeout-min' && i + 1 < argv.length) flags.timeoutMinutes = Number(argv[++i]);
+    else if (a === '--rounds' && i + 1 < argv.length && /^[1-9][0-9]*$/.test(argv[i + 1])) flags.rounds = Number(argv[++i]);
     else {
       process.stderr.write(`bench: unknown or incomplete flag "${a}"\n${USAGE}\n`);
       process.exit(2);
@@ -107,6 +113,7 @@ function prepareInChild(c: BenchCase, dir: string, mtx: boolean, timeoutMs: numb
  */
 function runChild(c: BenchCase, engine: EngineName, work: string, dir: string, timeoutMs: number): Promise<Outcome> {
   const out = join(work, `${c.name}.${engine}.json`);
+  rmSync(out, { force: true }); // a previous round's record must not count as this one's
   const args = [...process.execArgv, '--expose-gc', process.argv[1], '--child', c.name, engine, out, dir];
   return new Promise((done) => {
     const child = spawn(process.execPath, args, { stdio: ['ignore', 'inherit', 'inherit'] });
@@ -156,6 +163,17 @@ function runScipy(script: string, mtxDir: string, timeoutMs: number): ScipyRecor
 }
 
 
+/** The item with the median key (the lower middle of an even count). */
+function medianOf<T>(items: readonly T[], key: (x: T) => number): T {
+  const sorted = [...items].sort((a, b) => key(a) - key(b));
+  return sorted[(sorted.length - 1) >> 1];
+}
+
+/** Median of numbers (the lower middle of an even count, as medianOf). */
+function median(v: readonly number[]): number {
+  return medianOf(v, (x) => x);
+}
+
 function ok(r: Outcome | undefined): r is CaseRecord {
   return r !== undefined && 'dof' in r && r.error === undefined;
 }
@@ -184,6 +202,7 @@ async function parentMain(argv: readonly string[]): Promise<void> {
   const dense = new Map<string, Outcome>();
   const ml = new Map<string, Outcome>();
   const scipy = new Map<string, ScipyRecord | { error: string }>();
+  const roundLog = new Map<string, { ours: CaseRecord[]; scipy: ScipyRecord[] }>();
   const progress = (s: string): void => void process.stderr.write(`[bench ${new Date().toISOString().slice(11, 19)}] ${s}\n`);
 
   try {
@@ -196,14 +215,29 @@ async function parentMain(argv: readonly string[]): Promise<void> {
         sparse.set(c.name, { case: c.name, engine: 'sparse', error: failed });
         continue;
       }
-      progress(`${c.name}: sparse`);
-      const r = await runChild(c, 'sparse', work, dir, timeoutMs);
-      sparse.set(c.name, r);
-      if (!ok(r)) progress(`${c.name}: ${r.error}`);
-      if (haveScipy && ok(r) && existsSync(join(dir, 'K.mtx'))) {
-        progress(`${c.name}: scipy`);
-        scipy.set(c.name, runScipy(script!, dir, timeoutMs));
+      // Target cases: ours and SciPy alternately, `rounds` times each, so that both see the
+      // same spells of load; the run with the median time stands for each in the tables.
+      const rounds = c.target ? flags.rounds : 1;
+      const ours: Outcome[] = [];
+      const theirs: Array<ScipyRecord | { error: string }> = [];
+      for (let k = 0; k < rounds; k++) {
+        const of = rounds > 1 ? ` (round ${k + 1} of ${rounds})` : '';
+        progress(`${c.name}: sparse${of}`);
+        const r = await runChild(c, 'sparse', work, dir, timeoutMs);
+        ours.push(r);
+        if (!ok(r)) {
+          progress(`${c.name}: ${r.error}`);
+          break;
+        }
+        if (haveScipy && existsSync(join(dir, 'K.mtx'))) {
+          progress(`${c.name}: scipy${of}`);
+          theirs.push(runScipy(script!, dir, timeoutMs));
+        }
       }
+      const r = medianOf(ours, (x) => (ok(x) ? x.seconds.solve : Infinity));
+      sparse.set(c.name, r);
+      if (theirs.length > 0) scipy.set(c.name, medianOf(theirs, (x) => ('error' in x ? Infinity : x.seconds)));
+      if (rounds > 1) roundLog.set(c.name, { ours: ours.filter(ok), scipy: theirs.filter((x): x is ScipyRecord => !('error' in x)) });
       if (c.family === 'dense') {
         progress(`${c.name}: our dense solver`);
         dense.set(c.name, await runChild(c, 'dense', work, dir, timeoutMs));
@@ -252,7 +286,7 @@ async function parentMain(argv: readonly string[]): Promise<void> {
       sOk ? fmtSeconds(s.seconds) : 'n/a',
       sOk ? fmtRatio(r.seconds.solve / s.seconds) : 'n/a',
       fmtSeconds(r.secondSolveSeconds),
-      sOk ? fmtRatio(r.secondSolveSeconds / s.seconds) : 'n/a',
+      sOk && Number.isFinite(r.secondSolveSeconds) ? fmtRatio(r.secondSolveSeconds / s.seconds) : sOk ? '–' : 'n/a',
       sOk ? fmtRatio(r.solveCpuSeconds / s.cpu_seconds) : 'n/a',
       sOk ? fmtMiB(sPeak) : 'n/a',
       sOk ? fmtRatio(oPeak / sPeak) : 'n/a',
@@ -281,6 +315,33 @@ async function parentMain(argv: readonly string[]): Promise<void> {
     for (const [n, v] of failed) lines.push(`  SciPy failed on ${n}: ${(v as { error: string }).error}`);
   } else {
     lines.push(`SciPy columns n/a: ${scipyNote}.`);
+  }
+
+  // Rounds of the target cases.
+  if (roundLog.size > 0) {
+    lines.push('');
+    lines.push(`Target cases, ${flags.rounds} rounds (ours in a fresh child, then SciPy, alternately); the table above shows each side's median run:`);
+    const rh = ['case', 'ours s (1st call)', 'ours s (2nd call)', 'SciPy s', 'median ours/SciPy', '2nd call', 'min ours/min SciPy', 'peak MiB ours', 'SciPy MiB'];
+    const rrows: string[][] = [];
+    for (const [name, log] of roundLog) {
+      const o1 = log.ours.map((x) => x.seconds.solve);
+      const o2 = log.ours.map((x) => x.secondSolveSeconds);
+      const sp = log.scipy.map((x) => x.seconds);
+      const list = (v: number[]): string => v.map(fmtSeconds).join(', ');
+      const both = o1.length > 0 && sp.length > 0;
+      rrows.push([
+        name,
+        list(o1),
+        list(o2),
+        list(sp),
+        both ? fmtRatio(median(o1) / median(sp)) : 'n/a',
+        both ? fmtRatio(median(o2) / median(sp)) : 'n/a',
+        both ? fmtRatio(Math.min(...o1) / Math.min(...sp)) : 'n/a',
+        log.ours.map((x) => fmtMiB(x.solvePeakMiB)).join(', '),
+        log.scipy.map((x) => fmtMiB(x.solve_peak_mib ?? x.maxrss_mib)).join(', '),
+      ]);
+    }
+    lines.push(renderTable(rh, rrows));
   }
 
   // Growth exponent per family.
@@ -355,6 +416,7 @@ async function parentMain(argv: readonly string[]): Promise<void> {
       dense: dense.get(c.name),
       mlmatrix: ml.get(c.name),
       scipy: scipy.get(c.name),
+      ...(roundLog.has(c.name) ? { rounds: roundLog.get(c.name) } : {}),
     })),
     growthExponents: fits,
     report,
