@@ -73,9 +73,10 @@ class SupernodalFactor implements LdltFactor {
     }
     if (this.work.length < n * k) this.work = new Float64Array(n * k);
     const y = this.work;
-    // The loops over the rows live in functions of their own (see permuteInto): a long loop here
-    // would be compiled on its own (on-stack replacement) before the code after it had run, and
-    // that code would then drop the compiled loop on every call of the first solves.
+    // The loops over the rows live in functions of their own: a long loop here would be compiled
+    // on its own (on-stack replacement) before the code after it had run, and that code would
+    // then drop the compiled loop on every call of the first solves (25 times on the 83,784-DOF
+    // footbridge's first solve).
     permuteInto(y, b, this.perm, n, k);
     forwardSolve(y, k, n, this.superStart, this.rowPtr, this.rows, this.lxPtr, this.lx);
     backwardSolve(y, k, n, this.superStart, this.rowPtr, this.rows, this.lxPtr, this.lx, this.d);
