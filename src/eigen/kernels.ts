@@ -62,6 +62,22 @@ export function scaleInto(y: Float64Array, x: Float64Array, a: number, n: number
 }
 
 /**
+ * sums[0] ← ‖a − λ·b‖², sums[1] ← ‖x‖² over the first n entries, in one pass (a mode's residual
+ * K x − λ M x, or an operator residual y − θ x with b = x).
+ */
+export function residualSquares(a: Float64Array, b: Float64Array, x: Float64Array, lam: number, n: number, sums: Float64Array): void {
+  let r2 = 0;
+  let x2 = 0;
+  for (let i = 0; i < n; i++) {
+    const r = a[i] - lam * b[i];
+    r2 += r * r;
+    x2 += x[i] * x[i];
+  }
+  sums[0] = r2;
+  sums[1] = x2;
+}
+
+/**
  * h[c − c0] ← V[:, c]ᵀ w for c in [c0, c1).
  * @param v - basis, column-major n × (≥ c1)
  * @param n - rows

@@ -15,7 +15,7 @@
  */
 import { AbortedError, ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
-import { dotColumns, gram, combineColumnsInPlace, SeededRandom, subtractColumns } from './kernels';
+import { dotColumns, gram, combineColumnsInPlace, residualSquares, SeededRandom, subtractColumns } from './kernels';
 import type { BlockOperator } from './operators';
 import type { ProgressCallback } from './lanczos';
 import { congruence, mGramSchmidt, multiplySmall, projectedEigen } from './ritz';
@@ -133,6 +133,7 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
   const res = new Float64Array(q);
   const opRes = new Float64Array(q).fill(Infinity);
   const opFloor = new Float64Array(q).fill(Infinity);
+  const sums = new Float64Array(2); // residualSquares' two sums
   let opConverged = false;
   let residualsConverged = false;
   const best = new Float64Array(p).fill(Infinity);
@@ -182,14 +183,9 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
         const c = order[r];
         const theta = 1 / omega[c];
         const x = X.subarray(c * n, (c + 1) * n);
-        const y = Xb.subarray(c * n, (c + 1) * n);
-        let d2 = 0;
-        let x2 = 0;
-        for (let i = 0; i < n; i++) {
-          const d = y[i] - theta * x[i];
-          d2 += d * d;
-          x2 += x[i] * x[i];
-        }
+        residualSquares(Xb.subarray(c * n, (c + 1) * n), x, x, theta, n, sums);
+        const d2 = sums[0];
+        const x2 = sums[1];
         const floor = (1e3 * Number.EPSILON * thetaMax) / Math.abs(theta);
         opFloor[c] = floor > o.tolerance ? o.tolerance : Infinity; // above its floor, a pair's op residual is no longer information
         opRes[c] = Math.sqrt(d2) / (Math.abs(theta) * Math.sqrt(x2) || 1);

@@ -7,7 +7,7 @@ import { AbstractMatrix } from 'ml-matrix';
 import { ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
 import { symmetricMultiply, symmetricMultiplyMany, type SymmetricCsc } from '../linalg/sparse/symmetric';
-import { dot, dotColumns } from './kernels';
+import { dot, dotColumns, residualSquares } from './kernels';
 import type { DenseSymmetric } from './dense/input';
 
 /** A symmetric matrix in any form the checks accept. */
@@ -234,22 +234,6 @@ function checkPairs(
     }
   }
   return { residuals: out, orthogonalityError: worst };
-}
-
-/**
- * sums[0] ← ‖kx − λ·mx‖², sums[1] ← ‖x‖² (one pass). A function of its own so that checkPairs
- * holds no long loop (see the cold-start note in kernels.ts).
- */
-function residualSquares(kx: Float64Array, mx: Float64Array, x: Float64Array, lam: number, n: number, sums: Float64Array): void {
-  let r2 = 0;
-  let x2 = 0;
-  for (let i = 0; i < n; i++) {
-    const r = kx[i] - lam * mx[i];
-    r2 += r * r;
-    x2 += x[i] * x[i];
-  }
-  sums[0] = r2;
-  sums[1] = x2;
 }
 
 /**
