@@ -254,15 +254,8 @@ export function subspaceIteration(inverse: BlockOperator, mass: BlockOperator, s
       const x = X.subarray(c * n, (c + 1) * n);
       const mx = MX.subarray(c * n, (c + 1) * n);
       stiffness.apply(x, kx);
-      const lam = sigma + omega[c];
-      let r2 = 0;
-      let x2 = 0;
-      for (let i = 0; i < n; i++) {
-        const d = kx[i] - lam * mx[i];
-        r2 += d * d;
-        x2 += x[i] * x[i];
-      }
-      res[c] = Math.sqrt(r2) / (normK * Math.sqrt(x2) || 1);
+      residualSquares(kx, mx, x, sigma + omega[c], n, sums);
+      res[c] = Math.sqrt(sums[0]) / (normK * Math.sqrt(sums[1]) || 1);
       if (res[c] <= o.tolerance) nconv++;
     }
     o.onProgress?.('subspace', nconv / p);
