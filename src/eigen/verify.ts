@@ -6,8 +6,9 @@
 import { AbstractMatrix } from 'ml-matrix';
 import { ArgumentError, VerificationError } from '../errors';
 import type { Operator } from '../linalg/operator';
-import { symmetricMultiply, symmetricMultiplyMany, type SymmetricCsc } from '../linalg/sparse/symmetric';
+import type { SymmetricCsc } from '../linalg/sparse/symmetric';
 import { dot, dotColumns, residualSquares } from './kernels';
+import { matrixOperator, type BlockOperator } from './operators';
 import type { DenseSymmetric } from './dense/input';
 
 /** A symmetric matrix in any form the checks accept. */
@@ -30,7 +31,7 @@ function flatOf(a: AbstractMatrix): DenseSymmetric {
 
 /** Wraps any operand as an Operator (y ← A x), converting ml-matrix once. */
 export function asOperator(a: SymmetricOperand): Operator {
-  if (isCsc(a)) return { n: a.n, apply: (x, y) => symmetricMultiply(a, x, y) };
+  if (isCsc(a)) return matrixOperator(a);
   if (AbstractMatrix.isMatrix(a)) return asOperator(flatOf(a));
   if (isDense(a)) {
     const { n, data } = a;
@@ -172,9 +173,12 @@ export function checkWorkLength(n: number, m: number): number {
   return 2 * n * Math.min(CHECK_BLOCK, m);
 }
 
-/** Y ← A·X for k column-major vectors: one pass over a sparse A per four of them. */
-function multiplyBlock(a: SymmetricOperand, op: Operator, x: Float64Array, y: Float64Array, k: number, n: number): void {
-  if (isCsc(a)) symmetricMultiplyMany(a, x, y, k);
+/**
+ * Y ← A·X for k column-major vectors: in one call where the operator takes blocks (a sparse
+ * matrix's operator reads A once per four vectors), else one vector at a time.
+ */
+function multiplyBlock(op: Operator, x: Float64Array, y: Float64Array, k: number, n: number): void {
+  if (typeof (op as Partial<BlockOperator>).applyMany === 'function') (op as BlockOperator).applyMany(x, y, k);
   else for (let c = 0; c < k; c++) op.apply(x.subarray(c * n, (c + 1) * n), y.subarray(c * n, (c + 1) * n));
 }
 
@@ -211,8 +215,8 @@ function checkPairs(
     if (q === 0) {
       const b = Math.min(block, m - j);
       const xs = vectors.subarray(j * n, (j + b) * n);
-      multiplyBlock(K, kop, xs, kxs, b, n);
-      multiplyBlock(M, mop, xs, mxs, b, n);
+      multiplyBlock(kop, xs, kxs, b, n);
+      multiplyBlock(mop, xs, mxs, b, n);
     }
     const x = vectors.subarray(j * n, (j + 1) * n);
     const kx = kxs.subarray(q * n, (q + 1) * n);
