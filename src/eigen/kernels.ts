@@ -4,8 +4,9 @@
  * per pass so that each load of the vector serves several dot products or updates (a level-2
  * BLAS blocking, as in GEMV). None of these allocates.
  *
- * Cold start: every loop over the n rows sits in a function of its own that ends with that loop
- * (each column width its own function). V8 compiles a loop that is still running on its own
+ * Cold start: the loops of the Lanczos path (products, subtractions, the restart's combination,
+ * the residual sums) each sit in a function of their own that ends with that loop (each column
+ * width or block shape its own function). V8 compiles a loop that is still running on its own
  * (on-stack replacement); code after it that had not yet run has no type feedback, so the
  * compiled loop is dropped when it reaches that code, and the next calls re-enter the same
  * compiled loop and drop it again. Measured on the 83,784-DOF footbridge's first solve in a
@@ -244,12 +245,16 @@ export function combineColumnsInPlace(
   const rb = Math.max(1, Math.floor(tmp.length / m));
   for (let r0 = 0; r0 < n; r0 += rb) {
     const b = Math.min(n, r0 + rb) - r0;
-    // Rows r0 .. r0+b of the m input columns, row-major b × m.
-    for (let i = 0; i < m; i++) {
-      const src = (c0 + i) * n + r0;
-      for (let r = 0; r < b; r++) tmp[r * m + i] = v[src + r];
-    }
+    gatherRowBlock(v, n, c0, m, r0, b, tmp);
     combineBlock(v, c0 * n + r0, n, b, m, s, ldS, k, tmp);
+  }
+}
+
+/** t ← rows r0 .. r0+b of the m columns of v from column c0, row-major b × m. */
+function gatherRowBlock(v: Float64Array, n: number, c0: number, m: number, r0: number, b: number, t: Float64Array): void {
+  for (let i = 0; i < m; i++) {
+    const src = (c0 + i) * n + r0;
+    for (let r = 0; r < b; r++) t[r * m + i] = v[src + r];
   }
 }
 
