@@ -146,7 +146,19 @@ export function symmetricMultiply(a: SymmetricCsc, x: Float64Array, y: Float64Ar
       s = values[p] * xj;
       p++;
     }
-    for (; p < end; p++) {
+    // Two entries per pass (same operations in the same order): the engine re-checks each
+    // typed array once per loop iteration, so this halves those checks.
+    for (; p + 1 < end; p += 2) {
+      const i = rowIdx[p];
+      const v = values[p];
+      const i1 = rowIdx[p + 1];
+      const v1 = values[p + 1];
+      y[i] += v * xj;
+      s += v * x[i];
+      y[i1] += v1 * xj;
+      s += v1 * x[i1];
+    }
+    if (p < end) {
       const i = rowIdx[p];
       const v = values[p];
       y[i] += v * xj;
