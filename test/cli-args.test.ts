@@ -24,7 +24,7 @@ describe('command-line parsing', () => {
 
   it.each([
     [['--count', '0'], '--count', 'out of range'],
-    [['--count', '-3'], '--count', 'not a whole number'],
+    [['--count', '-3'], '--count', '-3 is out of range'],
     [['--count', '2.5'], '--count', 'not a whole number'],
     [['--count', 'ten'], '--count', 'not a whole number'],
     [['--near', 'abc'], '--near', 'not a finite number'],

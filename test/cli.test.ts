@@ -128,6 +128,7 @@ describe('bad input: one line naming the item, non-zero exit', () => {
     ['unknown option', ['modes', DEMO, '--colour'], EXIT.usage, /--colour: unknown option/],
     ['count zero', ['modes', DEMO, '--count', '0'], EXIT.usage, /--count: 0 is out of range/],
     ['count not integer', ['modes', DEMO, '--count', '2.5'], EXIT.usage, /--count: "2.5" is not a whole number/],
+    ['count negative', ['modes', DEMO, '--count', '-3'], EXIT.usage, /--count: -3 is out of range; give a positive integer/],
     ['count above the DOFs', ['modes', DEMO, '--count', '100000'], EXIT.input, /count/],
     ['missing file', ['modes', join(dir, 'nope.json')], EXIT.input, /nope\.json: model file not found/],
     ['directory', ['modes', sub], EXIT.input, /is a directory/],

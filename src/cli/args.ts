@@ -88,6 +88,7 @@ function convert(opt: OptionSpec, raw: string): string | number {
   const where = `--${opt.name}`;
   switch (opt.kind) {
     case 'count': {
+      if (/^-\d+$/.test(raw.trim())) throw new ArgumentError(`${raw.trim()} is out of range; give a positive integer such as 10`, where);
       if (!/^[+]?\d+$/.test(raw.trim())) {
         throw new ArgumentError(`"${raw}" is not a whole number; give a positive integer such as 10`, where);
       }
