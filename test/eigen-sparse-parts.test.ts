@@ -135,6 +135,15 @@ describe('operators', () => {
     op.applyMany(X, Y, 3);
     expect(op.applications).toBe(4);
     for (let i = 0; i < 30; i++) expect(Y[60 + i]).toBeCloseTo(y[i], 13);
+    // Five columns (four per pass over M, then one): each column bit-equal to a single apply.
+    const X5 = new Float64Array(150).map((_, i) => Math.cos(0.3 * i));
+    const Y5 = new Float64Array(150);
+    op.applyMany(X5, Y5, 5);
+    const yc = new Float64Array(30);
+    for (let c = 0; c < 5; c++) {
+      op.apply(X5.subarray(30 * c, 30 * (c + 1)), yc);
+      expect(Array.from(Y5.subarray(30 * c, 30 * (c + 1)))).toEqual(Array.from(yc));
+    }
     const inv = inverseOperator(factor);
     const z = new Float64Array(30);
     inv.apply(mx, z);

@@ -82,7 +82,7 @@ export function shiftInvertOperator(factor: LdltFactor, m: SymmetricCsc): BlockO
     },
     applyMany(x: Float64Array, y: Float64Array, k: number): void {
       if (block.length < n * k) block = new Float64Array(n * k);
-      for (let c = 0; c < k; c++) symmetricMultiply(m, x.subarray(c * n, (c + 1) * n), block.subarray(c * n, (c + 1) * n));
+      symmetricMultiplyMany(m, x, block, k);
       factor.solveMany(block.subarray(0, n * k), y.subarray(0, n * k), k);
       op.applications += k;
     },
