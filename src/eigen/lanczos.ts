@@ -500,9 +500,7 @@ export function lanczos(inverse: Operator, mass: Operator, options: LanczosOptio
     if (o.massVectors) {
       const mx = massVectors.subarray(c * n, (c + 1) * n);
       mass.apply(x, mx);
-      const inv = 1 / Math.sqrt(dot(x, mx, n));
-      scaleInto(x, x, inv, n);
-      scaleInto(mx, mx, inv, n);
+      scaleBoth(x, mx, 1 / Math.sqrt(dot(x, mx, n)), n);
     } else {
       // The error estimate is |g|, the purification's coefficient (zero when not purified).
       const g = errorEstimates[c];
