@@ -9,11 +9,11 @@
  * unknowns in locals and stream the rows below once (measured on a bar footbridge's factor:
  * forward −20 %, backward −25 % against the blocked loops for three to six columns), two rows
  * per loop pass: the engine's optimized code re-checks every typed array it reads once per pass
- * (a whole solve on that factor −5 to −8 %, same bits, since each sum keeps its order); wider ones
- * go four (forward) or eight (backward) rows at a time. Each width is a function of its own:
- * the JavaScript engine then compiles each small loop to optimized code within the first solve,
- * where one function holding every case took longer to compile than the solve took to run. The order of every sum is fixed,
- * so every path gives the same bits. No allocation.
+ * (a whole solve on that factor −5 to −8 %, same bits, since each sum keeps its order); wider
+ * ones go four (forward) or eight (backward) rows at a time. Each width is a function of its
+ * own: the JavaScript engine then compiles each small loop to optimized code within the first
+ * solve, where one function holding every case took longer to compile than the solve took to
+ * run. The order of every sum is fixed, so every path gives the same bits. No allocation.
  */
 
 /** Y ← L⁻¹ Y, supernode by supernode. */
